@@ -1,0 +1,359 @@
+#include "StructuralChecks.h"
+
+#include "condition/Parser.h"
+#include "condition/TypeCheck.h"
+
+#include <QHash>
+#include <QSet>
+
+#include <cmath>
+#include <limits>
+
+namespace rb {
+
+namespace {
+
+// Where a condition or field lives, for the findings about it.
+struct Place {
+    const Item* item = nullptr; // null for module-level
+    const Module* module = nullptr;
+    int position = -1;
+    QString field;
+    QString codeList; // set for findings about a shared code list
+};
+
+class Checker {
+public:
+    explicit Checker(const CompiledRouting& routing) : m_routing(routing), m_index(routing.index()) {}
+
+    Findings run() {
+        checkNames();
+        checkCodeLists();
+        for (const ItemIndex::Entry& entry : m_index.entries())
+            checkItem(entry);
+        checkModules();
+        return m_findings;
+    }
+
+private:
+    void add(const Place& place, const QString& check, Severity severity, const QString& message,
+             std::optional<int> column = std::nullopt) {
+        Finding f;
+        f.check = check;
+        f.severity = severity;
+        f.item = place.item ? place.item->name : QString();
+        f.module = place.module ? place.module->name : QString();
+        f.field = place.field;
+        f.subject = place.codeList;
+        f.column = column;
+        f.message = message;
+        f.position = place.position;
+        m_findings.append(f);
+    }
+
+    Place itemPlace(const ItemIndex::Entry& e, const QString& field) const {
+        return {e.item, e.module, e.position, field, {}};
+    }
+
+    // Position of a module: that of its first item, or of whatever follows it.
+    int modulePosition(const Module& module) const { return m_index.modulePosition(module.name); }
+
+    void checkNames();
+    void claimName(const QString& name, const Place& place, const QString& what);
+    void checkCodeLists();
+    void checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
+                    QSet<qint64>& seen);
+    void checkItem(const ItemIndex::Entry& entry);
+    void checkItemCodes(const ItemIndex::Entry& entry);
+    void checkRange(const ItemIndex::Entry& entry);
+    void checkRules(const ItemIndex::Entry& entry);
+    void checkModules();
+    // Parses, type-checks and looks for forward references and unknown codes.
+    // `limit`: the condition may read items at positions < limit only.
+    void checkCondition(const QString& text, const Place& place, int limit, const QString& why);
+    void checkUnknownCodes(const cond::Expr& expr, const Place& place);
+
+    const CompiledRouting& m_routing;
+    const ItemIndex& m_index;
+    Findings m_findings;
+    QHash<QString, QString> m_names; // lower-case name -> what claimed it
+};
+
+void Checker::claimName(const QString& name, const Place& place, const QString& what) {
+    const QString key = name.toLower();
+    const auto it = m_names.constFind(key);
+    if (it != m_names.constEnd()) {
+        add(place, QStringLiteral("duplicate-name"), Severity::Error,
+            QStringLiteral("the name '%1' of %2 is already used by %3 (names must be unique "
+                           "ignoring case)")
+                .arg(name, what, *it));
+        return;
+    }
+    m_names.insert(key, what);
+}
+
+void Checker::checkNames() {
+    const Instrument& instrument = m_routing.instrument();
+    int position = 0; // flat position of the next item
+    for (const Module& module : instrument.modules) {
+        const Place place{nullptr, &module, modulePosition(module), QStringLiteral("name"), {}};
+        if (!isValidItemName(module.name))
+            add(place, QStringLiteral("invalid-name"), Severity::Error,
+                QStringLiteral("module name '%1' is not a valid name (a letter, then letters, "
+                               "digits or _, at most 32, not a keyword nor END)")
+                    .arg(module.name));
+        claimName(module.name, place, QStringLiteral("module '%1'").arg(module.name));
+        for (const Item& item : module.items) {
+            const Place ip{&item, &module, position++, QStringLiteral("name"), {}};
+            if (!isValidItemName(item.name))
+                add(ip, QStringLiteral("invalid-name"), Severity::Error,
+                    QStringLiteral("item name '%1' is not a valid name (a letter, then letters, "
+                                   "digits or _, at most 32, not a keyword nor END)")
+                        .arg(item.name));
+            claimName(item.name, ip, QStringLiteral("item '%1'").arg(item.name));
+            if (item.type == ItemType::Multi)
+                for (const QString& variable : multiVariableNames(instrument, item))
+                    claimName(variable, ip,
+                              QStringLiteral("variable '%1' of multi item '%2'")
+                                  .arg(variable, item.name));
+        }
+    }
+}
+
+void Checker::checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
+                         QSet<qint64>& seen) {
+    for (int i = 0; i < codes.size(); ++i) {
+        const qint64 code = codes.at(i).code;
+        if (seen.contains(code)) {
+            Place p = place;
+            p.field = QStringLiteral("%1[%2]").arg(fieldPrefix).arg(i);
+            add(p, QStringLiteral("duplicate-code"), Severity::Error,
+                QStringLiteral("code %1 appears more than once").arg(code));
+        }
+        seen.insert(code);
+    }
+}
+
+void Checker::checkCodeLists() {
+    const Instrument& instrument = m_routing.instrument();
+    QSet<QString> used;
+    for (const ItemIndex::Entry& e : m_index.entries())
+        if (!e.item->hasInlineCodes && !e.item->codeListName.isEmpty())
+            used.insert(e.item->codeListName.toLower());
+    for (const CodeList& list : instrument.codeLists) {
+        Place place{nullptr, nullptr, -1, QStringLiteral("code_lists.%1").arg(list.name), list.name};
+        if (list.codes.isEmpty())
+            add(place, QStringLiteral("empty-code-list"), Severity::Error,
+                QStringLiteral("code list '%1' has no codes").arg(list.name));
+        QSet<qint64> seen;
+        checkCodes(list.codes, place, place.field, seen);
+        if (!used.contains(list.name.toLower()))
+            add(place, QStringLiteral("unused-code-list"), Severity::Warning,
+                QStringLiteral("code list '%1' is used by no item").arg(list.name));
+    }
+}
+
+bool isCoded(ItemType type) { return type == ItemType::Single || type == ItemType::Multi; }
+bool isNumeric(ItemType type) { return type == ItemType::Integer || type == ItemType::Decimal; }
+
+void Checker::checkItemCodes(const ItemIndex::Entry& e) {
+    const Item& item = *e.item;
+    QSet<qint64> seen;
+    if (item.hasInlineCodes)
+        checkCodes(item.inlineCodes, itemPlace(e, {}), QStringLiteral("codes"), seen);
+    else if (const CodeList* list = m_routing.instrument().findCodeList(item.codeListName))
+        for (const Code& c : list->codes)
+            seen.insert(c.code);
+    checkCodes(item.missing, itemPlace(e, {}), QStringLiteral("missing"), seen);
+    if (isCoded(item.type)) {
+        QList<Code> codes = m_routing.instrument().codesOf(item);
+        if (codes.isEmpty())
+            add(itemPlace(e, QStringLiteral("codes")), QStringLiteral("empty-code-list"),
+                Severity::Error,
+                QStringLiteral("%1 item '%2' has no codes").arg(itemTypeName(item.type), item.name));
+    }
+}
+
+void Checker::checkRange(const ItemIndex::Entry& e) {
+    const Item& item = *e.item;
+    if (!item.range)
+        return;
+    const Place place = itemPlace(e, QStringLiteral("range"));
+    const auto& [low, high] = *item.range;
+    if (!isNumeric(item.type))
+        add(place, QStringLiteral("bad-range"), Severity::Error,
+            QStringLiteral("a range is only for integer and decimal items, not %1")
+                .arg(itemTypeName(item.type)));
+    else if (low.value > high.value)
+        add(place, QStringLiteral("bad-range"), Severity::Error,
+            QStringLiteral("range [%1, %2] is empty: the minimum is above the maximum")
+                .arg(low.text, high.text));
+    else if (item.type == ItemType::Integer &&
+             (std::floor(low.value) != low.value || std::floor(high.value) != high.value))
+        add(place, QStringLiteral("bad-range"), Severity::Error,
+            QStringLiteral("range [%1, %2] of an integer item has a bound that is not a whole number")
+                .arg(low.text, high.text));
+}
+
+void Checker::checkRules(const ItemIndex::Entry& e) {
+    const Item& item = *e.item;
+    for (int k = 0; k < item.routing.size(); ++k) {
+        const Rule& rule = item.routing.at(k);
+        if (rule.condition)
+            // A rule is evaluated after its item is presented: it may read the item itself.
+            checkCondition(*rule.condition, itemPlace(e, QStringLiteral("routing[%1].if").arg(k)),
+                           e.position + 1, QStringLiteral("a later item"));
+        const Place goPlace = itemPlace(e, QStringLiteral("routing[%1].goto").arg(k));
+        const int target = m_index.resolveTarget(rule.target);
+        if (target < 0)
+            add(goPlace, QStringLiteral("unknown-target"), Severity::Error,
+                QStringLiteral("goto '%1' names no item, module or END").arg(rule.target));
+        else if (target == e.position + 1)
+            add(goPlace, QStringLiteral("redundant-goto"), Severity::Warning,
+                QStringLiteral("goto '%1' leads where the questionnaire goes anyway").arg(rule.target));
+    }
+}
+
+void Checker::checkItem(const ItemIndex::Entry& e) {
+    const Item& item = *e.item;
+    if (item.text.trimmed().isEmpty())
+        add(itemPlace(e, QStringLiteral("text")), QStringLiteral("missing-text"), Severity::Warning,
+            QStringLiteral("item '%1' has no question text").arg(item.name));
+    checkItemCodes(e);
+    checkRange(e);
+    if (item.askIf)
+        // A filter is evaluated before its item is presented: earlier items only.
+        checkCondition(*item.askIf, itemPlace(e, QStringLiteral("ask_if")), e.position,
+                       QStringLiteral("the item itself or a later item"));
+    checkRules(e);
+    if (item.whenSkipped && item.whenSkipped->condition)
+        checkCondition(*item.whenSkipped->condition,
+                       itemPlace(e, QStringLiteral("when_skipped.if")), m_index.size(), {});
+}
+
+void Checker::checkModules() {
+    for (const Module& module : m_routing.instrument().modules) {
+        const int position = modulePosition(module);
+        if (module.items.isEmpty())
+            add({nullptr, &module, position, QStringLiteral("items"), {}}, QStringLiteral("empty-module"),
+                Severity::Warning, QStringLiteral("module '%1' has no items").arg(module.name));
+        if (module.askIf)
+            // A module filter is evaluated at each of its items: items before the module only.
+            checkCondition(*module.askIf, {nullptr, &module, position, QStringLiteral("ask_if"), {}},
+                           position, QStringLiteral("an item of this module or a later one"));
+    }
+}
+
+void Checker::checkCondition(const QString& text, const Place& place, int limit,
+                             const QString& why) {
+    const cond::ParseResult parsed = cond::parseCondition(text);
+    if (!parsed.ok()) {
+        add(place, QStringLiteral("syntax"), Severity::Error,
+            parsed.error ? parsed.error->message : QStringLiteral("cannot parse the condition"),
+            parsed.error ? parsed.error->column : 1);
+        return;
+    }
+    const QList<cond::ConditionProblem> problems = cond::typeCheck(*parsed.expr, m_index);
+    for (const cond::ConditionProblem& p : problems)
+        add(place, p.check, Severity::Error, p.message, p.column);
+    for (const cond::NameUse& use : cond::namesRead(*parsed.expr)) {
+        const int read = m_index.positionOf(use.name);
+        if (read >= limit)
+            add(place, QStringLiteral("forward-reference"), Severity::Error,
+                QStringLiteral("the condition reads '%1', which is %2: it is not asked yet when "
+                               "the condition is evaluated")
+                    .arg(use.name, why),
+                use.column);
+    }
+    if (problems.isEmpty())
+        checkUnknownCodes(*parsed.expr, place);
+}
+
+// The values an item may hold when presented, as closed intervals (codes are points).
+using Interval = std::pair<double, double>;
+QList<Interval> possibleValues(const Item& item, const QList<Code>& codes) {
+    QList<Interval> values;
+    for (const Code& c : codes)
+        if (isCoded(item.type) || c.isMissing())
+            values.append({double(c.code), double(c.code)});
+    if (isNumeric(item.type)) {
+        const double inf = std::numeric_limits<double>::infinity();
+        values.append(item.range ? Interval{item.range->first.value, item.range->second.value}
+                                 : Interval{-inf, inf});
+    }
+    return values;
+}
+
+bool meets(const QList<Interval>& values, Interval wanted, bool openLow, bool openHigh) {
+    for (const Interval& v : values) {
+        const bool aboveLow = openLow ? v.second > wanted.first : v.second >= wanted.first;
+        const bool belowHigh = openHigh ? v.first < wanted.second : v.first <= wanted.second;
+        if (aboveLow && belowHigh)
+            return true;
+    }
+    return false;
+}
+
+// The literal's value set, tested against what the item can hold.
+bool literalMeetsItem(const cond::Expr& atom, const QList<Interval>& values,
+                      const cond::ListElement* element) {
+    const double inf = std::numeric_limits<double>::infinity();
+    if (element) {
+        const double high = element->high ? element->high->number : element->low.number;
+        return meets(values, {element->low.number, high}, false, false);
+    }
+    const double v = atom.value.number;
+    switch (atom.op) {
+    case cond::CompareOp::Eq:
+    case cond::CompareOp::Ne:
+        return meets(values, {v, v}, false, false);
+    case cond::CompareOp::Lt:
+        return meets(values, {-inf, v}, true, true);
+    case cond::CompareOp::Le:
+        return meets(values, {-inf, v}, true, false);
+    case cond::CompareOp::Gt:
+        return meets(values, {v, inf}, true, true);
+    case cond::CompareOp::Ge:
+        return meets(values, {v, inf}, false, true);
+    }
+    return true;
+}
+
+void Checker::checkUnknownCodes(const cond::Expr& expr, const Place& place) {
+    for (const cond::ExprPtr& child : expr.children)
+        checkUnknownCodes(*child, place);
+    using K = cond::Expr::Kind;
+    if (expr.kind != K::Compare && expr.kind != K::In && expr.kind != K::Has)
+        return;
+    const int position = m_index.positionOf(expr.name);
+    if (position < 0)
+        return;
+    const Item& item = *m_index.at(position).item;
+    if (!isCoded(item.type) && !isNumeric(item.type))
+        return;
+    const QList<Interval> values = possibleValues(item, m_routing.codes(position));
+    auto report = [&](const QString& literal) {
+        add(place, QStringLiteral("unknown-code"), Severity::Warning,
+            QStringLiteral("'%1' is compared with %2, which holds none of its %3")
+                .arg(expr.name, literal,
+                     isCoded(item.type) ? QStringLiteral("codes")
+                                        : QStringLiteral("range and missing codes")),
+            expr.column);
+    };
+    if (expr.kind == K::In) {
+        for (const cond::ListElement& element : expr.list)
+            if (element.low.isNumber() && !literalMeetsItem(expr, values, &element))
+                report(element.high ? element.low.text + QStringLiteral("..") + element.high->text
+                                    : element.low.text);
+    } else if (expr.value.isNumber() && !literalMeetsItem(expr, values, nullptr)) {
+        report(expr.kind == K::Compare ? cond::compareOpText(expr.op) + QLatin1Char(' ') +
+                                             expr.value.text
+                                       : expr.value.text);
+    }
+}
+
+} // namespace
+
+Findings structuralFindings(const CompiledRouting& routing) { return Checker(routing).run(); }
+
+} // namespace rb

@@ -1,0 +1,27 @@
+#pragma once
+
+#include "Expr.h"
+#include "instrument/Instrument.h"
+
+namespace rb::cond {
+
+// A problem of a parsed condition against the instrument.
+struct ConditionProblem {
+    QString check;  // "unknown-variable" or "type-mismatch"
+    int column = 0; // 1-based column in the condition text
+    QString message;
+};
+
+// Unknown names; `has` on a non-multi item; `=`/`<`/`in` on a multi item; text
+// compared with a number or a number with text; a range on a text item; reading
+// a `statement`. Names resolve through the index, ignoring case.
+QList<ConditionProblem> typeCheck(const Expr& expr, const ItemIndex& index);
+
+// Every atom's item name as written, in order of appearance (with repeats).
+struct NameUse {
+    QString name;
+    int column = 0;
+};
+QList<NameUse> namesRead(const Expr& expr);
+
+} // namespace rb::cond

@@ -1,0 +1,85 @@
+#include "DotExport.h"
+
+#include <QTextStream>
+
+namespace rb {
+
+QString dotQuoted(const QString& text) {
+    QString out;
+    out.reserve(text.size() + 2);
+    out += QLatin1Char('"');
+    for (QChar c : text) {
+        if (c == QLatin1Char('\\') || c == QLatin1Char('"'))
+            out += QLatin1Char('\\');
+        if (c == QLatin1Char('\n'))
+            out += QStringLiteral("\\n");
+        else if (c == QLatin1Char('\r') || c.category() == QChar::Other_Control)
+            out += QLatin1Char(' ');
+        else
+            out += c;
+    }
+    out += QLatin1Char('"');
+    return out;
+}
+
+namespace {
+
+QString nodeId(const CompiledRouting& routing, int position) {
+    if (position >= routing.itemCount())
+        return QStringLiteral("END");
+    return dotQuoted(routing.index().at(position).item->name);
+}
+
+void writeNodes(const CompiledRouting& routing, QTextStream& out) {
+    out << "  START [shape=circle];\n  END [shape=doublecircle];\n";
+    for (const ItemIndex::Entry& e : routing.index().entries()) {
+        QString label = e.item->name;
+        if (!e.item->label.isEmpty())
+            label += QLatin1Char('\n') + e.item->label;
+        for (const std::optional<QString>& filter : {e.module->askIf, e.item->askIf})
+            if (filter)
+                label += QStringLiteral("\nask if: ") + *filter;
+        out << "  " << nodeId(routing, e.position) << " [label=" << dotQuoted(label)
+            << ", module=" << dotQuoted(e.module->name) << "];\n";
+    }
+}
+
+void writeEdges(const CompiledRouting& routing, QTextStream& out) {
+    const int count = routing.itemCount();
+    out << "  START -> " << nodeId(routing, 0) << ";\n";
+    for (int p = 0; p < count; ++p) {
+        const QString from = nodeId(routing, p);
+        bool always = false;
+        const QList<Rule>& rules = routing.index().at(p).item->routing;
+        for (int k = 0; k < rules.size() && !always; ++k) {
+            const CompiledRouting::CompiledRule& rule = routing.item(p).rules.at(k);
+            if (!rule.usable)
+                continue;
+            always = rule.condition == nullptr;
+            const QString label = always ? QStringLiteral("always") : *rules.at(k).condition;
+            out << "  " << from << " -> " << nodeId(routing, rule.target)
+                << " [label=" << dotQuoted(label) << ", kind=rule];\n";
+        }
+        if (!always)
+            out << "  " << from << " -> " << nodeId(routing, p + 1) << " [kind=next];\n";
+        if (!routing.item(p).filters.isEmpty())
+            out << "  " << from << " -> " << nodeId(routing, p + 1)
+                << " [label=\"filtered out\", style=dashed, kind=filtered];\n";
+    }
+}
+
+} // namespace
+
+QByteArray exportDot(const CompiledRouting& routing) {
+    QString text;
+    QTextStream out(&text);
+    out << "digraph routebook {\n  graph [label="
+        << dotQuoted(routing.instrument().title) << "];\n  node [shape=box];\n";
+    writeNodes(routing, out);
+    writeEdges(routing, out);
+    out << "}\n";
+    out.flush();
+    return text.toUtf8();
+}
+
+} // namespace rb

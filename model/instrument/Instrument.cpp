@@ -1,0 +1,130 @@
+#include "Instrument.h"
+
+#include <QRegularExpression>
+
+namespace rb {
+
+namespace {
+struct MissingName {
+    MissingKind kind;
+    const char* name;
+};
+constexpr MissingName kMissingNames[] = {{MissingKind::DontKnow, "dont_know"},
+                                         {MissingKind::Refused, "refused"},
+                                         {MissingKind::NotApplicable, "not_applicable"}};
+
+struct TypeName {
+    ItemType type;
+    const char* name;
+};
+constexpr TypeName kTypeNames[] = {
+    {ItemType::Single, "single"},   {ItemType::Multi, "multi"}, {ItemType::Integer, "integer"},
+    {ItemType::Decimal, "decimal"}, {ItemType::Text, "text"},   {ItemType::Date, "date"},
+    {ItemType::Statement, "statement"}};
+
+QString key(const QString& name) { return name.toLower(); }
+} // namespace
+
+QString missingKindName(MissingKind kind) {
+    for (const auto& m : kMissingNames)
+        if (m.kind == kind)
+            return QString::fromLatin1(m.name);
+    return {};
+}
+
+std::optional<MissingKind> missingKindFromName(const QString& name) {
+    for (const auto& m : kMissingNames)
+        if (name == QLatin1String(m.name))
+            return m.kind;
+    return std::nullopt;
+}
+
+QString itemTypeName(ItemType type) {
+    for (const auto& t : kTypeNames)
+        if (t.type == type)
+            return QString::fromLatin1(t.name);
+    return {};
+}
+
+std::optional<ItemType> itemTypeFromName(const QString& name) {
+    for (const auto& t : kTypeNames)
+        if (name == QLatin1String(t.name))
+            return t.type;
+    return std::nullopt;
+}
+
+const CodeList* Instrument::findCodeList(const QString& name) const {
+    for (const CodeList& list : codeLists)
+        if (list.name.compare(name, Qt::CaseInsensitive) == 0)
+            return &list;
+    return nullptr;
+}
+
+QList<Code> Instrument::codesOf(const Item& item) const {
+    QList<Code> codes;
+    if (item.hasInlineCodes)
+        codes = item.inlineCodes;
+    else if (!item.codeListName.isEmpty())
+        if (const CodeList* list = findCodeList(item.codeListName))
+            codes = list->codes;
+    codes += item.missing;
+    return codes;
+}
+
+ItemIndex::ItemIndex(const Instrument& instrument) {
+    int position = 0;
+    for (int m = 0; m < instrument.modules.size(); ++m) {
+        const Module& module = instrument.modules.at(m);
+        // An empty module's goto lands on whatever follows it.
+        m_moduleFirst.insert(key(module.name), position);
+        for (const Item& item : module.items) {
+            m_entries.append({&item, &module, m, position});
+            m_byName.insert(key(item.name), position); // first wins below
+            ++position;
+        }
+    }
+    // Duplicate names: keep the first occurrence (a duplicate-name finding reports the rest).
+    QHash<QString, int> first;
+    for (const Entry& e : m_entries)
+        if (!first.contains(key(e.item->name)))
+            first.insert(key(e.item->name), e.position);
+    m_byName = first;
+}
+
+int ItemIndex::positionOf(const QString& name) const { return m_byName.value(key(name), -1); }
+
+int ItemIndex::modulePosition(const QString& name) const {
+    return m_moduleFirst.value(key(name), -1);
+}
+
+int ItemIndex::resolveTarget(const QString& target) const {
+    if (target.compare(QLatin1String("END"), Qt::CaseInsensitive) == 0)
+        return size();
+    const int item = positionOf(target);
+    if (item >= 0)
+        return item;
+    return modulePosition(target);
+}
+
+QStringList multiVariableNames(const Instrument& instrument, const Item& item) {
+    QStringList names;
+    for (const Code& code : instrument.codesOf(item))
+        names.append(item.name + QLatin1Char('_') + QString::number(code.code));
+    return names;
+}
+
+bool isConditionKeyword(const QString& word) {
+    static const QStringList keywords = {
+        QStringLiteral("and"),   QStringLiteral("or"),       QStringLiteral("not"),
+        QStringLiteral("in"),    QStringLiteral("has"),      QStringLiteral("asked"),
+        QStringLiteral("answered"), QStringLiteral("true"),  QStringLiteral("false")};
+    return keywords.contains(word);
+}
+
+bool isValidItemName(const QString& name) {
+    static const QRegularExpression pattern(QStringLiteral("^[A-Za-z][A-Za-z0-9_]*$"));
+    return name.size() <= 32 && pattern.match(name).hasMatch() && !isConditionKeyword(name) &&
+           name.compare(QLatin1String("END"), Qt::CaseInsensitive) != 0;
+}
+
+} // namespace rb

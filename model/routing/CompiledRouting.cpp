@@ -1,0 +1,48 @@
+#include "CompiledRouting.h"
+
+#include "condition/Parser.h"
+#include "condition/TypeCheck.h"
+
+namespace rb {
+
+CompiledRouting::CompiledRouting(const Instrument& instrument)
+    : m_instrument(&instrument), m_index(instrument) {
+    m_items.reserve(m_index.size());
+    m_codes.reserve(m_index.size());
+    for (const ItemIndex::Entry& entry : m_index.entries()) {
+        CompiledItem compiled;
+        for (const std::optional<QString>& filter : {entry.module->askIf, entry.item->askIf})
+            if (filter)
+                if (cond::ExprPtr expr = compileCondition(*filter))
+                    compiled.filters.append(expr);
+        for (const Rule& rule : entry.item->routing) {
+            CompiledRule c;
+            c.target = m_index.resolveTarget(rule.target);
+            if (rule.condition) {
+                c.condition = compileCondition(*rule.condition);
+                c.usable = c.condition != nullptr;
+            }
+            if (c.target < 0)
+                c.usable = false;
+            compiled.rules.append(c);
+        }
+        m_items.append(compiled);
+        m_codes.append(instrument.codesOf(*entry.item));
+    }
+}
+
+cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
+    cond::ParseResult parsed = cond::parseCondition(text);
+    if (!parsed.ok() || !cond::typeCheck(*parsed.expr, m_index).isEmpty())
+        return nullptr;
+    return parsed.expr;
+}
+
+bool CompiledRouting::isMissingCode(int position, qint64 code) const {
+    for (const Code& c : m_codes.at(position))
+        if (c.code == code)
+            return c.isMissing();
+    return false;
+}
+
+} // namespace rb

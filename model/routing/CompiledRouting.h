@@ -1,0 +1,53 @@
+#pragma once
+
+#include "condition/Expr.h"
+#include "instrument/Instrument.h"
+
+#include <QList>
+
+namespace rb {
+
+// The routing of an instrument with every condition parsed and every target
+// resolved, once, for the simulator and the analyzer. Broken pieces are
+// dropped as DESIGN.md says: a condition with a syntax, unknown-variable or
+// type-mismatch error is "absent" (a filter then always passes, a rule never
+// fires), and so is a rule whose target is unknown.
+class CompiledRouting {
+public:
+    struct CompiledRule {
+        cond::ExprPtr condition; // null: always fires
+        int target = -1;         // flat position; itemCount() for END
+        bool usable = true;      // false: broken condition or unknown target, never fires
+    };
+    struct CompiledItem {
+        // Filters in effect: the item's own and its module's (joined with and);
+        // broken ones are left out.
+        QList<cond::ExprPtr> filters;
+        QList<CompiledRule> rules;
+    };
+
+    explicit CompiledRouting(const Instrument& instrument);
+
+    const Instrument& instrument() const { return *m_instrument; }
+    const ItemIndex& index() const { return m_index; }
+    int itemCount() const { return m_index.size(); }
+    const CompiledItem& item(int position) const { return m_items.at(position); }
+    // Position of a name read by a condition (any case), or -1.
+    int positionOf(const QString& name) const { return m_index.positionOf(name); }
+    // True when a code is a missing code of the item at this position.
+    bool isMissingCode(int position, qint64 code) const;
+    // Codes (with missing codes) of the item at this position.
+    const QList<Code>& codes(int position) const { return m_codes.at(position); }
+
+    // Parses a condition and reports whether it is usable (no syntax error,
+    // no unknown name, no type mismatch).
+    cond::ExprPtr compileCondition(const QString& text) const;
+
+private:
+    const Instrument* m_instrument;
+    ItemIndex m_index;
+    QList<CompiledItem> m_items;
+    QList<QList<Code>> m_codes;
+};
+
+} // namespace rb

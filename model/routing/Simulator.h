@@ -1,0 +1,28 @@
+#pragma once
+
+#include "CompiledRouting.h"
+#include "condition/Evaluator.h"
+
+#include <functional>
+
+namespace rb {
+
+// The reference route of DESIGN.md "Routing semantics", step by step:
+//   pos := first item; while pos is not END: if the filters fail, skip it;
+//   else present it, then the first rule whose condition holds jumps, else next.
+// `answerOf(position)` gives the value a presented item records. The loop
+// guard stops after 4 x (number of items) steps.
+struct RouteResult {
+    QList<int> path;      // presented positions, in order (repeats possible in a loop)
+    bool loop = false;    // true when the guard stopped the route
+    QList<cond::CellValue> values; // per position: what the item holds at the end
+};
+
+RouteResult simulateRoute(const CompiledRouting& routing,
+                          const std::function<cond::CellValue(int position)>& answerOf);
+
+// An evaluation environment over per-position values (names resolve through the routing).
+cond::Environment environmentFor(const CompiledRouting& routing,
+                                 const QList<cond::CellValue>& values);
+
+} // namespace rb
