@@ -1,0 +1,236 @@
+#include "Lexer.h"
+
+using namespace Qt::StringLiterals;
+
+namespace rb::cond {
+
+namespace {
+
+bool isAsciiLetter(QChar c) {
+    return (c >= u'a' && c <= u'z') || (c >= u'A' && c <= u'Z');
+}
+bool isDigit(QChar c) {
+    return c >= u'0' && c <= u'9';
+}
+bool isNameChar(QChar c) {
+    return isAsciiLetter(c) || isDigit(c) || c == u'_';
+}
+
+bool isKeywordSpelling(const QString& word) {
+    static const QStringList keywords = {u"and"_s,   u"or"_s,       u"not"_s,  u"in"_s,   u"has"_s,
+                                         u"asked"_s, u"answered"_s, u"true"_s, u"false"_s};
+    return keywords.contains(word); // case-sensitive on purpose: `AND` is a name
+}
+
+// A hint for characters people often type from other languages.
+QString hintFor(QChar c) {
+    switch (c.unicode()) {
+    case u'&':
+        return u" (write 'and')"_s;
+    case u'|':
+        return u" (write 'or')"_s;
+    case u'!':
+        return u" (write 'not', or '<>' for not equal)"_s;
+    case u'\'':
+        return u" (text literals use double quotes)"_s;
+    default:
+        return {};
+    }
+}
+
+class Lexer {
+public:
+    explicit Lexer(const QString& text) : m_text(text) {}
+
+    LexResult run() {
+        LexResult result;
+        while (!m_error) {
+            skipSpace();
+            if (m_pos >= m_text.size())
+                break;
+            result.tokens.append(next());
+        }
+        if (m_error) {
+            result.tokens.clear();
+            result.error = m_error;
+            return result;
+        }
+        Token end;
+        end.kind = Token::Kind::End;
+        end.column = int(m_text.size()) + 1;
+        result.tokens.append(end);
+        return result;
+    }
+
+private:
+    const QString& m_text;
+    qsizetype m_pos = 0;
+    std::optional<ParseError> m_error;
+
+    QChar at(qsizetype i) const { return i < m_text.size() ? m_text.at(i) : QChar(); }
+    int column(qsizetype i) const { return int(i) + 1; }
+
+    void fail(qsizetype i, const QString& message) {
+        if (!m_error)
+            m_error = ParseError{column(i), message};
+    }
+
+    void skipSpace() {
+        while (m_pos < m_text.size() && m_text.at(m_pos).isSpace())
+            ++m_pos;
+    }
+
+    Token make(Token::Kind kind, qsizetype start, qsizetype length) {
+        Token t;
+        t.kind = kind;
+        t.text = m_text.mid(start, length);
+        t.column = column(start);
+        m_pos = start + length;
+        return t;
+    }
+
+    Token next() {
+        const QChar c = m_text.at(m_pos);
+        if (isAsciiLetter(c))
+            return name();
+        if (isDigit(c) || c == u'-')
+            return number();
+        if (c == u'"')
+            return textLiteral();
+        return punctuation();
+    }
+
+    Token name() {
+        qsizetype end = m_pos;
+        while (end < m_text.size() && isNameChar(m_text.at(end)))
+            ++end;
+        Token t = make(Token::Kind::Name, m_pos, end - m_pos);
+        if (isKeywordSpelling(t.text))
+            t.kind = Token::Kind::Keyword;
+        return t;
+    }
+
+    // integer := -?digits ; decimal := -?digits.digits ; "1..5" is 1 .. 5.
+    Token number() {
+        const qsizetype start = m_pos;
+        qsizetype i = start;
+        if (at(i) == u'-')
+            ++i;
+        if (!isDigit(at(i))) {
+            fail(start, u"expected a digit after '-' (a negative number is written -3)"_s);
+            return {};
+        }
+        while (isDigit(at(i)))
+            ++i;
+        Token::Kind kind = Token::Kind::Integer;
+        if (at(i) == u'.' && isDigit(at(i + 1))) {
+            kind = Token::Kind::Decimal;
+            i += 1;
+            while (isDigit(at(i)))
+                ++i;
+        } else if (at(i) == u'.' && at(i + 1) != u'.') {
+            fail(i + 1, u"expected digits after the decimal point"_s);
+            return {};
+        }
+        if (isAsciiLetter(at(i)) || at(i) == u'_') {
+            fail(i, u"unexpected character '%1' right after a number"_s.arg(at(i)));
+            return {};
+        }
+        Token t = make(kind, start, i - start);
+        bool ok = false;
+        t.number = t.text.toDouble(&ok);
+        if (!ok)
+            fail(start, u"number '%1' is too large"_s.arg(t.text.left(40)));
+        return t;
+    }
+
+    Token textLiteral() {
+        const qsizetype start = m_pos;
+        QString content;
+        qsizetype i = start + 1;
+        while (i < m_text.size()) {
+            const QChar c = m_text.at(i);
+            if (c == u'"') {
+                Token t = make(Token::Kind::Text, start, i + 1 - start);
+                t.text = content;
+                return t;
+            }
+            if (c == u'\\') {
+                const QChar escaped = at(i + 1);
+                if (escaped != u'"' && escaped != u'\\') {
+                    fail(i, u"unknown escape in text literal (only \\\" and \\\\ are escapes)"_s);
+                    return {};
+                }
+                content.append(escaped);
+                i += 2;
+                continue;
+            }
+            content.append(c);
+            ++i;
+        }
+        fail(start, u"unterminated text literal"_s);
+        return {};
+    }
+
+    Token punctuation() {
+        const QChar c = m_text.at(m_pos);
+        const QChar d = at(m_pos + 1);
+        switch (c.unicode()) {
+        case u'(':
+            return make(Token::Kind::LParen, m_pos, 1);
+        case u')':
+            return make(Token::Kind::RParen, m_pos, 1);
+        case u',':
+            return make(Token::Kind::Comma, m_pos, 1);
+        case u'=':
+            return op(CompareOp::Eq, 1);
+        case u'<':
+            if (d == u'>')
+                return op(CompareOp::Ne, 2);
+            if (d == u'=')
+                return op(CompareOp::Le, 2);
+            return op(CompareOp::Lt, 1);
+        case u'>':
+            if (d == u'=')
+                return op(CompareOp::Ge, 2);
+            return op(CompareOp::Gt, 1);
+        case u'.':
+            if (d == u'.')
+                return make(Token::Kind::DotDot, m_pos, 2);
+            break;
+        default:
+            break;
+        }
+        fail(m_pos, u"unexpected character '%1'%2"_s.arg(c).arg(hintFor(c)));
+        return {};
+    }
+
+    Token op(CompareOp which, qsizetype length) {
+        Token t = make(Token::Kind::Op, m_pos, length);
+        t.op = which;
+        return t;
+    }
+};
+
+} // namespace
+
+LexResult lexCondition(const QString& text) {
+    return Lexer(text).run();
+}
+
+QString describeToken(const Token& token) {
+    switch (token.kind) {
+    case Token::Kind::End:
+        return u"the end of the condition"_s;
+    case Token::Kind::Text: {
+        QString shown = token.text.left(30);
+        if (shown.size() < token.text.size())
+            shown += u"..."_s;
+        return u"'\"%1\"'"_s.arg(shown);
+    }
+    default:
+        return u"'%1'"_s.arg(token.text.left(40));
+    }
+}
+
+} // namespace rb::cond

@@ -1,0 +1,163 @@
+#include "TypeCheck.h"
+
+#include <QDate>
+#include <QRegularExpression>
+
+using namespace Qt::StringLiterals;
+
+namespace rb::cond {
+
+namespace {
+
+// Items whose values are numbers (codes count as numbers) and those whose
+// values are text. Dates are text in ISO form, so ordering them as strings
+// orders them as dates; `<` on plain text is allowed too (string order).
+bool holdsNumbers(ItemType t) {
+    return t == ItemType::Single || t == ItemType::Multi || t == ItemType::Integer ||
+           t == ItemType::Decimal;
+}
+
+bool isIsoDate(const QString& text) {
+    static const QRegularExpression shape(u"^[0-9]{4}-[0-9]{2}-[0-9]{2}$"_s);
+    return shape.match(text).hasMatch() && QDate::fromString(text, Qt::ISODate).isValid();
+}
+
+bool isAtom(const Expr& e) {
+    switch (e.kind) {
+    case Expr::Kind::Compare:
+    case Expr::Kind::In:
+    case Expr::Kind::Has:
+    case Expr::Kind::Asked:
+    case Expr::Kind::Answered:
+        return true;
+    default:
+        return false;
+    }
+}
+
+class Checker {
+public:
+    explicit Checker(const ItemIndex& index) : m_index(index) {}
+
+    void walk(const Expr& e) {
+        if (isAtom(e))
+            checkAtom(e);
+        for (const ExprPtr& child : e.children)
+            walk(*child);
+    }
+
+    QList<ConditionProblem> problems;
+
+private:
+    const ItemIndex& m_index;
+
+    void report(const Expr& atom, const QString& check, const QString& message) {
+        problems.append({check, atom.nameColumn, message});
+    }
+
+    // A hint for the two names people most often write by mistake: a module
+    // name, or the stored variable name of one code of a multi item (m_3).
+    QString unknownHint(const QString& name) const {
+        if (m_index.modulePosition(name) != -1)
+            return u" ('%1' is a module; conditions read items)"_s.arg(name);
+        const qsizetype cut = name.lastIndexOf(u'_');
+        if (cut > 0) {
+            bool isCode = false;
+            const qint64 code = name.mid(cut + 1).toLongLong(&isCode);
+            const int position = m_index.positionOf(name.left(cut));
+            if (isCode && position >= 0 && m_index.at(position).item->type == ItemType::Multi)
+                return u" (to test one code of multi item '%1', write '%1 has %2')"_s.arg(
+                    m_index.at(position).item->name, QString::number(code));
+        }
+        return {};
+    }
+
+    void checkAtom(const Expr& atom) {
+        const int position = m_index.positionOf(atom.name);
+        if (position < 0) {
+            report(atom, u"unknown-variable"_s,
+                   u"unknown item '%1'%2"_s.arg(atom.name, unknownHint(atom.name)));
+            return;
+        }
+        const Item& item = *m_index.at(position).item;
+        if (const QString problem = typeProblem(atom, item); !problem.isEmpty())
+            report(atom, u"type-mismatch"_s, problem);
+    }
+
+    // The first type problem of one atom, or "" (one problem per atom is
+    // enough to act on; more would repeat the same mistake).
+    static QString typeProblem(const Expr& atom, const Item& item) {
+        const QString typeName = itemTypeName(item.type);
+        if (atom.kind == Expr::Kind::Asked)
+            return {};
+        if (item.type == ItemType::Statement) {
+            if (atom.kind == Expr::Kind::Answered)
+                return u"'%1' is a statement and holds no value, so answered(%1) is never true; "
+                       u"use asked(%1)"_s.arg(atom.name);
+            return u"'%1' is a statement and holds no value; conditions cannot read it"_s.arg(
+                atom.name);
+        }
+        if (atom.kind == Expr::Kind::Answered)
+            return {};
+        if (atom.kind == Expr::Kind::Has && item.type != ItemType::Multi)
+            return u"'has' is for multi items; '%1' is a %2 item (use '=' or 'in')"_s.arg(atom.name,
+                                                                                          typeName);
+        if (atom.kind != Expr::Kind::Has && item.type == ItemType::Multi)
+            return u"'%1' is a multi item; use 'has' to test a chosen code (%1 has CODE)"_s.arg(
+                atom.name);
+        if (atom.kind == Expr::Kind::In)
+            return listProblem(atom, item);
+        return valueProblem(atom.value, atom.name, item);
+    }
+
+    static QString listProblem(const Expr& atom, const Item& item) {
+        for (const ListElement& element : atom.list) {
+            if (element.high && item.type == ItemType::Text)
+                return u"a range (..) cannot be used with text item '%1'"_s.arg(atom.name);
+            QString problem = valueProblem(element.low, atom.name, item);
+            if (problem.isEmpty() && element.high)
+                problem = valueProblem(*element.high, atom.name, item);
+            if (!problem.isEmpty())
+                return problem;
+        }
+        return {};
+    }
+
+    static QString valueProblem(const Value& value, const QString& name, const Item& item) {
+        const QString typeName = itemTypeName(item.type);
+        if (holdsNumbers(item.type) && !value.isNumber())
+            return u"'%1' is a %2 item; compare it with a number, not text"_s.arg(name, typeName);
+        if (item.type == ItemType::Text && value.isNumber())
+            return u"'%1' is a text item; compare it with \"text\", not a number"_s.arg(name);
+        if (item.type == ItemType::Date && value.isNumber())
+            return u"'%1' is a date item; compare it with a date in quotes, e.g. \"2024-05-31\""_s
+                .arg(name);
+        if (item.type == ItemType::Date && !isIsoDate(value.text))
+            return u"'%1' is not a date in the form YYYY-MM-DD (item '%2' is a date)"_s.arg(
+                value.text, name);
+        return {};
+    }
+};
+
+void collectNames(const Expr& e, QList<NameUse>& out) {
+    if (isAtom(e))
+        out.append({e.name, e.nameColumn});
+    for (const ExprPtr& child : e.children)
+        collectNames(*child, out);
+}
+
+} // namespace
+
+QList<ConditionProblem> typeCheck(const Expr& expr, const ItemIndex& index) {
+    Checker checker(index);
+    checker.walk(expr);
+    return checker.problems;
+}
+
+QList<NameUse> namesRead(const Expr& expr) {
+    QList<NameUse> names;
+    collectNames(expr, names);
+    return names;
+}
+
+} // namespace rb::cond
