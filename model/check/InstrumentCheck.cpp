@@ -2,11 +2,13 @@
 
 #include "StructuralChecks.h"
 #include "TestRespondentCheck.h"
+#include "analysis/RoutingAnalysis.h"
 
 namespace rb {
 
 Findings checkInstrument(const CompiledRouting& routing) {
     Findings findings = structuralFindings(routing);
+    findings += analyzeRouting(routing).findings;
     findings += testRespondentFindings(routing);
     sortFindings(findings);
     return findings;

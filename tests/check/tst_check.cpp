@@ -6,6 +6,7 @@
 #include <QtTest>
 
 using namespace rb;
+using namespace Qt::StringLiterals;
 
 namespace {
 
@@ -58,6 +59,8 @@ private slots:
     void findingIdsAndOrder();
     void codeListFindings();
     void testRespondentReplay();
+    void routingMistakesFullList();
+    void cleanSamples();
 };
 
 void TestCheck::findings_data() {
@@ -80,13 +83,18 @@ void TestCheck::findings_data() {
     // A filter reading its own item; "size" starts at column 1.
     QTest::newRow("forward-reference own")
         << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"size > 3\"}\n"
-        << QStringList{QStringLiteral("forward-reference size ask_if 1")};
+        // ... and since `size` is empty when its own filter runs, `size > 3`
+        // never holds: the item is unreachable (field empty: about the item).
+        << QStringList{QStringLiteral("forward-reference size ask_if 1"),
+                       QStringLiteral("unreachable-item size  -")};
     // A rule reading a later item: "owns = 1 and size > 2", `size` at column 14.
     QTest::newRow("forward-reference later")
         << QByteArray("      - name: owns\n        text: Own a garden?\n        type: single\n        codes: yes_no\n"
            "        routing: [{if: \"owns = 1 and size > 2\", goto: END}]\n"
            "      - {name: size, text: \"Size?\", type: integer}\n")
-        << QStringList{QStringLiteral("forward-reference owns routing[0].if 14")};
+        // `size` is empty when the rule runs, so `size > 2` never holds and the rule never fires.
+        << QStringList{QStringLiteral("forward-reference owns routing[0].if 14"),
+                       QStringLiteral("rule-never-fires owns routing[0].if 1")};
     QTest::newRow("unknown-target")
         << QByteArray("      - {name: owns, text: \"Own?\", type: single, codes: yes_no, routing: [{if: \"owns = 2\", goto: nowhere}]}\n"
            "      - {name: size, text: \"Size?\", type: integer}\n")
@@ -130,7 +138,9 @@ void TestCheck::findings_data() {
     // yes_no holds 1, 2, 9: 5 is none of them. The atom starts at column 1.
     QTest::newRow("unknown-code")
         << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns = 5\"}\n"
-        << QStringList{QStringLiteral("unknown-code size ask_if 1")};
+        // `owns = 5` never holds, so `size` is never asked.
+        << QStringList{QStringLiteral("unknown-code size ask_if 1"),
+                       QStringLiteral("unreachable-item size  -")};
     // 3..4 holds none of 1, 2, 9; the `in` atom starts at column 1.
     QTest::newRow("unknown-code range")
         << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns in (1, 3..4)\"}\n"
@@ -139,7 +149,9 @@ void TestCheck::findings_data() {
     QTest::newRow("unknown-code numeric")
         << QByteArray("      - {name: size, text: \"Size?\", type: integer, range: [1, 50]}\n"
            "      - {name: big, text: \"Big?\", type: text, ask_if: \"size > 100\"}\n")
-        << QStringList{QStringLiteral("unknown-code big ask_if 1")};
+        // No presented size exceeds 50, so `big` is never asked.
+        << QStringList{QStringLiteral("unknown-code big ask_if 1"),
+                       QStringLiteral("unreachable-item big  -")};
 }
 
 void TestCheck::findings() {
@@ -199,6 +211,64 @@ void TestCheck::testRespondentReplay() {
     const Findings f = findingsOf(instrumentYaml(items) + bad);
     QCOMPARE(summarize(f), QStringList{QStringLiteral("test-respondent-fails  test_respondents[0] -")});
     QVERIFY(f.at(0).message.contains(QLatin1String("step 2")));
+}
+
+void TestCheck::routingMistakesFullList() {
+    // Every deliberate mistake of the sample, in check order (position, then
+    // field, then check), as reasoned row by row in sample_projects/routing-mistakes.md.
+    LoadResult loaded =
+        loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/routing-mistakes.yaml"));
+    QVERIFY2(loaded.ok(), qPrintable(formatDiagnostics(loaded.errors)));
+    const CompiledRouting routing(*loaded.instrument);
+    QStringList actual;
+    for (const Finding& f : checkInstrument(routing))
+        actual.append(QStringLiteral("%1 %2 %3 %4 %5")
+                          .arg(severityName(f.severity), f.check, f.id(), f.field)
+                          .arg(f.column ? QString::number(*f.column) : QStringLiteral("-")));
+    const QStringList expected = {
+        u"warning unused-code-list unused-code-list:spare_scale:code_lists.spare_scale code_lists.spare_scale -"_s,
+        u"error syntax syntax:garden_size:ask_if ask_if 14"_s,
+        u"error duplicate-name duplicate-name:Lawn:name name -"_s,
+        u"error invalid-name invalid-name:2nd_bed:name name -"_s,
+        u"error unknown-variable unknown-variable:compost_use:ask_if ask_if 1"_s,
+        u"error duplicate-code duplicate-code:pot_size:codes[2] codes[2] -"_s,
+        u"warning reads-unasked-item reads-unasked-item:shed_power:ask_if ask_if 1"_s,
+        u"error unknown-target unknown-target:tree_count:routing[0].goto routing[0].goto -"_s,
+        u"error type-mismatch type-mismatch:fruit_trees:ask_if ask_if 1"_s,
+        u"error forward-reference forward-reference:hedge:ask_if ask_if 1"_s,
+        u"error unreachable-item unreachable-item:path_type:  -"_s,
+        u"warning rule-never-fires rule-never-fires:bird_feeder:routing[0].if routing[0].if 1"_s,
+        u"warning redundant-goto redundant-goto:mower:routing[0].goto routing[0].goto -"_s,
+        u"warning rule-always-fires rule-always-fires:watering_can:routing[0].if routing[0].if 1"_s,
+        u"error unreachable-item unreachable-item:gnome:  -"_s,
+        u"error routing-loop routing-loop:weed_method:routing[0].goto routing[0].goto -"_s,
+        u"error bad-range bad-range:hedge_height:range range -"_s,
+        u"error empty-code-list empty-code-list:watering_tool:codes codes -"_s,
+        u"warning missing-text missing-text:balcony_plants:text text -"_s,
+        u"warning unknown-code unknown-code:window_boxes:ask_if ask_if 1"_s,
+        u"warning empty-module empty-module:allotment:items items -"_s,
+        u"error test-respondent-fails test-respondent-fails:Refuses the garden question, expected "
+        u"path wrong:test_respondents[1] test_respondents[1] -"_s,
+    };
+    QCOMPARE(actual, expected);
+    // Which unreachable-item is which kind (DESIGN.md: say which).
+    for (const Finding& f : checkInstrument(routing)) {
+        if (f.check == QLatin1String("unreachable-item") && f.item == QLatin1String("gnome"))
+            QVERIFY(f.message.contains(QLatin1String("no path")));
+        if (f.check == QLatin1String("unreachable-item") && f.item == QLatin1String("path_type"))
+            QVERIFY(f.message.contains(QLatin1String("contradict")));
+    }
+}
+
+void TestCheck::cleanSamples() {
+    // The two demo instruments are meant to be free of errors.
+    for (const char* name : {"household-energy.yaml", "commuting.yaml"}) {
+        LoadResult loaded = loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/") +
+                                         QLatin1String(name));
+        QVERIFY(loaded.ok());
+        const CompiledRouting routing(*loaded.instrument);
+        QCOMPARE(countFindings(checkInstrument(routing)).errors, 0);
+    }
 }
 
 QTEST_GUILESS_MAIN(TestCheck)

@@ -1,0 +1,109 @@
+#pragma once
+
+#include "Mdd.h"
+#include "condition/Evaluator.h"
+#include "routing/CompiledRouting.h"
+
+#include <QHash>
+#include <QList>
+
+namespace rb::analysis {
+
+// One piece of an item's value set, kept so that a set of cells can be printed
+// back exactly: a code, a number, an interval of numbers, a text value, or
+// "any other text".
+struct ValuePiece {
+    enum class Kind { Code, Point, Interval, Text, OtherText };
+    Kind kind = Kind::Point;
+    double low = 0, high = 0; // Interval: bounds (may be +-inf), open at both ends
+    QString text;             // Text
+    cond::CellValue sample;   // a value of this piece (for evaluation)
+};
+
+// A cell: a set of values no condition of the instrument tells apart. Cell 0
+// of a value variable is always *empty* (not presented).
+struct ValueCell {
+    bool empty = false;
+    bool answered = false; // presented and not a missing code / blank text
+    QList<ValuePiece> pieces;
+    QList<bool> signature; // truth of every atom on this item (value variables)
+};
+
+// A decision variable. Ordinary items have one (their value); a `multi` item
+// has a status variable (empty / presented, not answered / answered) and one
+// yes-no variable per code that a `has` condition names.
+struct DecisionVar {
+    enum class Role { Value, MultiStatus, MultiHas };
+    Role role = Role::Value;
+    int position = -1;
+    qint64 code = 0; // MultiHas
+    QList<ValueCell> cells;
+};
+
+// The canonical condition algebra of one instrument: every condition becomes a
+// node of an Mdd over a finite partition of each gate item's values (codes and
+// missing codes, numeric intervals cut at every threshold any condition uses,
+// text literals plus "other", and empty). Only items that some usable
+// condition reads get variables; later items sit nearer the root, which keeps
+// the in-order dynamic programme of the analysis cheap.
+class ConditionAlgebra {
+public:
+    // `extra` conditions are taken into account for the partition (tests and
+    // callers that want to ask about conditions not in the instrument).
+    explicit ConditionAlgebra(const CompiledRouting& routing,
+                              const QList<cond::ExprPtr>& extra = {});
+
+    Mdd& mdd() { return m_mdd; }
+    const Mdd& mdd() const { return m_mdd; }
+    const CompiledRouting& routing() const { return *m_routing; }
+
+    int condition(const cond::Expr& expr);
+    int conditionText(const QString& text); // -1 when not usable
+    // The condition as evaluated at a point of the route where the items at or
+    // after `firstEmpty` have not been presented yet (so they read as empty).
+    int conditionAt(const cond::Expr& expr, int firstEmpty);
+
+    bool satisfiable(int f) const { return f != Mdd::False; }
+    bool equivalent(int f, int g) const { return f == g; }
+    bool implies(int f, int g) { return m_mdd.implies(f, g); }
+
+    // Item at `position` is empty / presented (with its value in its domain).
+    int emptyOf(int position) const;
+    int presentedOf(int position) const;
+    bool isGateItem(int position) const { return !varsOf(position).isEmpty(); }
+    QList<int> varsOf(int position) const { return m_varsOfPosition.value(position); }
+    const DecisionVar& variable(int var) const { return m_vars.at(var); }
+    int varCount() const { return int(m_vars.size()); }
+
+    // The cell per variable of one respondent's final values (by position).
+    std::vector<int> assignmentOf(const QList<cond::CellValue>& values) const;
+    // A value of the item at `position` lying in the given cells (for replay of
+    // a witness assignment); `cells` indexes varsOf(position).
+    cond::CellValue sampleValue(int position, const std::vector<int>& cellOfVar) const;
+
+private:
+    struct ItemAtoms {
+        QList<cond::ExprPtr> atoms; // Compare / In / Has / Answered on this item
+        QList<qint64> hasCodes;
+    };
+    void collect(const cond::Expr& expr);
+    void buildVariables();
+    void buildValueVar(int position, const ItemAtoms& atoms);
+    void buildMultiVars(int position, const ItemAtoms& atoms);
+    QList<ValuePiece> candidatePieces(int position, const ItemAtoms& atoms) const;
+    QList<bool> signature(int position, const ItemAtoms& atoms, const cond::CellValue& v) const;
+    int atom(const cond::Expr& expr);
+    int valueCellOf(int var, const cond::CellValue& value) const;
+    cond::Environment singleEnvironment(int position, const cond::CellValue& value) const;
+
+    const CompiledRouting* m_routing;
+    Mdd m_mdd;
+    QList<DecisionVar> m_vars;
+    QHash<int, QList<int>> m_varsOfPosition;
+    QHash<int, ItemAtoms> m_atoms;
+    QHash<int, int> m_empty, m_presented; // position -> node
+    QHash<const cond::Expr*, int> m_atomCache;
+    QList<cond::ExprPtr> m_keepAlive;
+};
+
+} // namespace rb::analysis

@@ -1,0 +1,561 @@
+#include "RoutingAnalyzer.h"
+
+#include "Scc.h"
+#include "UniversePrinter.h"
+#include "condition/Printer.h"
+#include "condition/TypeCheck.h"
+#include "routing/Simulator.h"
+
+#include <algorithm>
+#include <set>
+
+using namespace Qt::StringLiterals;
+
+namespace rb::analysis {
+
+namespace {
+
+// Closure of the care set: how many earlier gate items' conditions are folded
+// in before the rest is left as "care" (a larger care set only costs
+// simplification, never correctness).
+constexpr int CareClosureLimit = 12;
+constexpr int ExactGateItems = 12;
+
+QString ruleField(int k, bool condition) {
+    return u"routing["_s + QString::number(k) + (condition ? u"].if"_s : u"].goto"_s);
+}
+
+} // namespace
+
+RoutingAnalyzer::RoutingAnalyzer(const CompiledRouting& routing)
+    : m_routing(routing), m_algebra(routing) {
+    run();
+    findLoops();
+}
+
+int RoutingAnalyzer::filterNode(int position) {
+    int f = Mdd::True;
+    for (const cond::ExprPtr& filter : m_routing.item(position).filters)
+        f = m_algebra.mdd().andOp(f, m_algebra.conditionAt(*filter, position));
+    return f;
+}
+
+int RoutingAnalyzer::gapEmpty(int from, int to) {
+    Mdd& mdd = m_algebra.mdd();
+    int acc = Mdd::True;
+    // Ascending positions: each later item's variables sit above the ones built so far.
+    for (int p = from + 1; p < to; ++p)
+        if (m_algebra.isGateItem(p))
+            acc = mdd.andOp(m_algebra.emptyOf(p), acc);
+    return acc;
+}
+
+void RoutingAnalyzer::run() {
+    Mdd& mdd = m_algebra.mdd();
+    const int n = m_routing.itemCount();
+    std::vector<int> pending(n + 1, Mdd::False), loosePending(n + 1, Mdd::False);
+    if (n > 0)
+        pending[0] = loosePending[0] = Mdd::True;
+    m_reached.assign(n, Mdd::False);
+    m_presented.assign(n, Mdd::False);
+    m_loose.assign(n, Mdd::False);
+    m_looseReached.assign(n, Mdd::False);
+    m_filter.assign(n, Mdd::True);
+    m_rules.assign(n, {});
+    m_ruleCondition.assign(n, {});
+    m_feasible.assign(n, {});
+    for (int i = 0; i < n; ++i) {
+        const int r = pending[i], lr = loosePending[i];
+        const int filter = filterNode(i);
+        m_reached[i] = r;
+        m_looseReached[i] = lr;
+        m_filter[i] = filter;
+        const int shown = mdd.andOp(mdd.andOp(r, filter), m_algebra.presentedOf(i));
+        const int looseShown = mdd.andOp(lr, filter);
+        m_presented[i] = shown;
+        m_loose[i] = looseShown;
+        const int passed = mdd.andOp(mdd.diff(r, filter), m_algebra.emptyOf(i));
+        pending[i + 1] = mdd.orOp(pending[i + 1], passed);
+        loosePending[i + 1] = mdd.orOp(loosePending[i + 1], mdd.diff(lr, filter));
+        if (passed != Mdd::False)
+            m_feasible[i].push_back(i + 1);
+        int rest = shown, looseRest = looseShown;
+        for (const CompiledRouting::CompiledRule& rule : m_routing.item(i).rules) {
+            RuleSets sets;
+            sets.usable = rule.usable;
+            int c = Mdd::False;
+            if (rule.usable) {
+                c = rule.condition ? m_algebra.conditionAt(*rule.condition, i + 1) : Mdd::True;
+                sets.evaluated = rest;
+                sets.fired = mdd.andOp(rest, c);
+                const int looseFired = mdd.andOp(looseRest, c);
+                rest = mdd.diff(rest, c);
+                looseRest = mdd.diff(looseRest, c);
+                const int t = rule.target;
+                if (sets.fired != Mdd::False)
+                    m_feasible[i].push_back(t);
+                if (t > i) {
+                    pending[t] = mdd.orOp(pending[t], mdd.andOp(sets.fired, gapEmpty(i, t)));
+                    loosePending[t] = mdd.orOp(loosePending[t], looseFired);
+                }
+            }
+            m_rules[i].push_back(sets);
+            m_ruleCondition[i].push_back(c);
+        }
+        pending[i + 1] = mdd.orOp(pending[i + 1], rest);
+        loosePending[i + 1] = mdd.orOp(loosePending[i + 1], looseRest);
+        if (rest != Mdd::False)
+            m_feasible[i].push_back(i + 1);
+    }
+}
+
+QList<int> RoutingAnalyzer::positionsOf(const std::vector<int>& vars) const {
+    QList<int> positions;
+    for (int v : vars) {
+        const int p = m_algebra.variable(v).position;
+        if (!positions.contains(p))
+            positions.append(p);
+    }
+    std::sort(positions.begin(), positions.end());
+    return positions;
+}
+
+int RoutingAnalyzer::consistency(int position) {
+    if (const auto it = m_consistency.constFind(position); it != m_consistency.constEnd())
+        return *it;
+    Mdd& mdd = m_algebra.mdd();
+    const int loose = m_loose.at(position);
+    const int c = mdd.orOp(mdd.andOp(m_algebra.presentedOf(position), loose),
+                           mdd.diff(m_algebra.emptyOf(position), loose));
+    m_consistency.insert(position, c);
+    return c;
+}
+
+// The care set over the kept items: bucket elimination of the consistency
+// constraints, latest item first, folding in the items they depend on.
+int RoutingAnalyzer::careSet(const QList<int>& keep) {
+    Mdd& mdd = m_algebra.mdd();
+    std::set<int, std::greater<int>> active(keep.begin(), keep.end());
+    std::set<int> folded;
+    int care = Mdd::True;
+    while (!active.empty()) {
+        const int j = *active.begin();
+        active.erase(active.begin());
+        folded.insert(j);
+        care = mdd.andOp(care, consistency(j));
+        if (int(folded.size()) < CareClosureLimit)
+            for (int p : positionsOf(mdd.support(m_loose.at(j))))
+                if (!folded.count(p))
+                    active.insert(p);
+        if (!keep.contains(j))
+            for (int v : m_algebra.varsOf(j))
+                care = mdd.exists(care, v);
+    }
+    for (int v : mdd.support(care))
+        if (!keep.contains(m_algebra.variable(v).position))
+            care = mdd.exists(care, v);
+    return care;
+}
+
+ItemUniverse RoutingAnalyzer::universe(int position, Sop* sopOut) {
+    const ItemIndex::Entry& entry = m_routing.index().at(position);
+    ItemUniverse u;
+    u.position = position;
+    u.name = entry.item->name;
+    u.module = entry.module->name;
+    Sop sop;
+    if (m_presented.at(position) == Mdd::False) {
+        u.asked = ItemUniverse::Asked::Never;
+        u.plain = u"never asked"_s;
+        if (sopOut)
+            *sopOut = sop;
+        return u;
+    }
+    Mdd& mdd = m_algebra.mdd();
+    QList<int> keep = positionsOf(mdd.support(m_loose.at(position)));
+    int care = careSet(keep);
+    int on = mdd.andOp(m_loose.at(position), care);
+    // Drop gate items the universe does not need, latest first (so earlier,
+    // more basic items are kept when either would do).
+    for (int k = int(keep.size()) - 1; k >= 0 && keep.size() > 0; --k) {
+        int a = on, b = mdd.diff(care, on), c = care;
+        for (int v : m_algebra.varsOf(keep[k])) {
+            a = mdd.exists(a, v);
+            b = mdd.exists(b, v);
+            c = mdd.exists(c, v);
+        }
+        if (mdd.intersects(a, b))
+            continue;
+        on = a;
+        care = c;
+        keep.removeAt(k);
+    }
+    std::vector<int> vars;
+    for (int p : keep) {
+        QList<int> vs = m_algebra.varsOf(p);
+        std::sort(vs.begin(), vs.end());
+        vars.insert(vars.end(), vs.begin(), vs.end());
+    }
+    const int limit = keep.size() <= ExactGateItems ? int(vars.size()) : 0;
+    sop = minimiseSop(mdd, on, care, vars, limit);
+    const UniversePrinter printer(m_algebra);
+    preferShorterForms(sop, on, printer);
+    u.minimal = sop.exact;
+    if (sop.products.size() == 1 && sop.products.front().literals.empty()) {
+        u.asked = ItemUniverse::Asked::Always;
+    } else {
+        u.asked = ItemUniverse::Asked::Conditional;
+        u.askedIf = printer.condition(sop);
+        for (int p : keep)
+            u.gateItems.append(m_routing.index().at(p).item->name);
+    }
+    u.plain = printer.words(sop);
+    if (sopOut)
+        *sopOut = sop;
+    return u;
+}
+
+namespace {
+
+int productNode(Mdd& mdd, const SopProduct& p) {
+    int f = Mdd::True;
+    for (const SopLiteral& l : p.literals) {
+        std::vector<bool> cells(mdd.domainSize(l.var));
+        for (int c = 0; c < int(cells.size()); ++c)
+            cells[c] = l.cells.test(c);
+        f = mdd.andOp(f, mdd.literal(l.var, cells));
+    }
+    return f;
+}
+
+int elementCount(const QString& literal) {
+    return int(literal.count(u", "_s)) + 1;
+}
+
+} // namespace
+
+// Primes are maximal, so a literal whose value set could include *empty* (a
+// don't-care) does, and would print as `<>` / `not in`. DESIGN.md wants that
+// form only when the complement is shorter: otherwise drop empty again when
+// the cover still holds the whole on-set.
+void RoutingAnalyzer::preferShorterForms(Sop& sop, int on, const UniversePrinter& printer) {
+    Mdd& mdd = m_algebra.mdd();
+    for (std::size_t i = 0; i < sop.products.size(); ++i) {
+        for (SopLiteral& l : sop.products[i].literals) {
+            const DecisionVar::Role role = m_algebra.variable(l.var).role;
+            if (role == DecisionVar::Role::MultiHas || !l.cells.test(0) || l.cells.count() < 2)
+                continue;
+            SopLiteral positive = l;
+            positive.cells.words[0] &= ~std::uint64_t(1);
+            const QString withEmpty = printer.literal(l), without = printer.literal(positive);
+            // Value lists: fewer elements wins; the status of a multi item: the shorter text.
+            if (role == DecisionVar::Role::Value ? elementCount(without) > elementCount(withEmpty)
+                                                 : without.size() > withEmpty.size())
+                continue;
+            const SopLiteral saved = l;
+            l = positive;
+            int cover = Mdd::False;
+            for (const SopProduct& p : sop.products)
+                cover = mdd.orOp(cover, productNode(mdd, p));
+            if (!mdd.implies(on, cover))
+                l = saved;
+        }
+    }
+}
+
+void RoutingAnalyzer::findLoops() {
+    const int n = m_routing.itemCount();
+    std::vector<std::vector<int>> adj(n + 1);
+    for (int i = 0; i < n; ++i)
+        adj[i] = m_feasible[i];
+    m_inLoop.assign(n, false);
+    m_loops.clear();
+    for (const std::vector<int>& component : stronglyConnectedComponents(adj)) {
+        const int v = component.front();
+        const bool cycle = component.size() > 1 ||
+                           (v < n && std::find(adj[v].begin(), adj[v].end(), v) != adj[v].end());
+        if (!cycle)
+            continue;
+        m_loops.push_back(component);
+        for (int p : component)
+            if (p < n)
+                m_inLoop[p] = true;
+    }
+}
+
+std::vector<bool> RoutingAnalyzer::structurallyReachable() const {
+    const int n = m_routing.itemCount();
+    std::vector<std::vector<int>> adj(n + 1);
+    for (int i = 0; i < n; ++i) {
+        const CompiledRouting::CompiledItem& item = m_routing.item(i);
+        if (!item.filters.isEmpty())
+            adj[i].push_back(i + 1);
+        bool unconditional = false;
+        for (const CompiledRouting::CompiledRule& rule : item.rules) {
+            if (!rule.usable)
+                continue;
+            adj[i].push_back(rule.target);
+            if (!rule.condition) {
+                unconditional = true;
+                break;
+            }
+        }
+        if (!unconditional)
+            adj[i].push_back(i + 1);
+    }
+    return n > 0 ? reachableFrom(adj, 0) : std::vector<bool>(1, true);
+}
+
+Finding RoutingAnalyzer::makeFinding(const QString& check, Severity severity, int position,
+                                     const QString& field) const {
+    const ItemIndex::Entry& entry = m_routing.index().at(position);
+    Finding f;
+    f.check = check;
+    f.severity = severity;
+    f.item = entry.item->name;
+    f.module = entry.module->name;
+    f.field = field;
+    f.position = position;
+    return f;
+}
+
+void RoutingAnalyzer::addLoopFindings(Findings& out) const {
+    const int n = m_routing.itemCount();
+    for (const std::vector<int>& loop : m_loops) {
+        QStringList names;
+        for (int p : loop)
+            if (p < n)
+                names.append(m_routing.index().at(p).item->name);
+        // The finding sits on the first rule that jumps back into the loop.
+        for (int p : loop) {
+            const QList<CompiledRouting::CompiledRule>& rules = m_routing.item(p).rules;
+            int k = 0;
+            for (; k < rules.size(); ++k)
+                if (rules[k].usable && rules[k].target <= p &&
+                    std::binary_search(loop.begin(), loop.end(), rules[k].target) &&
+                    m_rules[p][k].fired != Mdd::False)
+                    break;
+            if (k == rules.size())
+                continue;
+            Finding f = makeFinding(u"routing-loop"_s, Severity::Error, p, ruleField(k, false));
+            f.message = u"routing loop: a respondent can go round "_s + names.join(u", "_s) +
+                        u" for ever (rule "_s + QString::number(k) + u" of "_s +
+                        m_routing.index().at(p).item->name + u" goes back to "_s +
+                        m_routing.index().at(rules[k].target).item->name + u')';
+            out.append(f);
+            break;
+        }
+    }
+}
+
+void RoutingAnalyzer::addUnreachable(Findings& out, const std::vector<bool>& reachable) const {
+    for (int i = 0; i < m_routing.itemCount(); ++i) {
+        if (m_presented[i] != Mdd::False || m_inLoop[i])
+            continue;
+        Finding f = makeFinding(u"unreachable-item"_s, Severity::Error, i, QString());
+        f.message = reachable[i]
+                        ? u"no respondent reaches "_s + f.item +
+                              u": the conditions along every path to it contradict each other"_s
+                        : u"no respondent reaches "_s + f.item +
+                              u": no path leads to it (earlier gotos jump over it)"_s;
+        out.append(f);
+    }
+}
+
+void RoutingAnalyzer::addRuleFindings(Findings& out) {
+    Mdd& mdd = m_algebra.mdd();
+    for (int i = 0; i < m_routing.itemCount(); ++i) {
+        if (m_presented[i] == Mdd::False)
+            continue;
+        const QList<CompiledRouting::CompiledRule>& rules = m_routing.item(i).rules;
+        const QList<Rule>& written = m_routing.index().at(i).item->routing;
+        for (int k = 0; k < rules.size(); ++k) {
+            const RuleSets& sets = m_rules[i][k];
+            if (!sets.usable || sets.evaluated == Mdd::False)
+                continue;
+            const bool hasIf = rules[k].condition != nullptr;
+            const QString text = hasIf ? *written[k].condition : QString();
+            const QString target = written[k].target;
+            if (sets.fired == Mdd::False) {
+                Finding f =
+                    makeFinding(u"rule-never-fires"_s, Severity::Warning, i, ruleField(k, true));
+                f.column = 1;
+                const bool alone = m_algebra.conditionAt(*rules[k].condition, i + 1) == Mdd::False;
+                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + u" (if "_s +
+                            text + u" go to "_s + target + u") never fires: "_s +
+                            (alone ? u"its condition can never hold"_s
+                                   : u"its condition never holds when the rule is evaluated"_s);
+                out.append(f);
+                continue;
+            }
+            const bool later = k + 1 < rules.size();
+            if (!hasIf && later) {
+                Finding f =
+                    makeFinding(u"rule-always-fires"_s, Severity::Warning, i, ruleField(k, false));
+                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item +
+                            u" has no condition, so the rules after it are never evaluated"_s;
+                out.append(f);
+            } else if (hasIf && mdd.implies(sets.evaluated, sets.fired)) {
+                Finding f =
+                    makeFinding(u"rule-always-fires"_s, Severity::Warning, i, ruleField(k, true));
+                f.column = 1;
+                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + u" (if "_s +
+                            text + u" go to "_s + target + u") fires whenever it is evaluated"_s +
+                            (later ? u", so the rules after it are never evaluated"_s
+                                   : u", so its condition is redundant"_s);
+                out.append(f);
+            }
+        }
+    }
+}
+
+std::optional<QString> RoutingAnalyzer::witnessPath(int set, int untilPosition) {
+    const std::optional<std::vector<int>> cells = m_algebra.mdd().satOne(set);
+    if (!cells)
+        return std::nullopt;
+    // The last items of the witness's path before the condition's item. On a
+    // consistent assignment the loose universe of an item equals its exact one
+    // (and has a small support), so each test is cheap; the programme already
+    // proved that this agrees with the simulator. Variables the witness leaves
+    // free belong to later items: empty at that point (cell 0).
+    std::vector<int> at = *cells;
+    for (int& c : at)
+        c = std::max(c, 0);
+    const Mdd& mdd = m_algebra.mdd();
+    constexpr int Shown = 6; // a long path is cut to its last items
+    QStringList names;
+    int p = untilPosition - 1;
+    for (; p >= 0 && names.size() < Shown; --p)
+        if (mdd.evaluate(m_loose[p], at))
+            names.prepend(m_routing.index().at(p).item->name);
+    bool more = false;
+    for (; p >= 0 && !more; --p)
+        more = mdd.evaluate(m_loose[p], at);
+    if (more)
+        names.prepend(u"..."_s);
+    return names.isEmpty() ? u"(no item presented before)"_s : names.join(u", "_s);
+}
+
+void RoutingAnalyzer::addUnaskedReads(Findings& out) {
+    Mdd& mdd = m_algebra.mdd();
+    const Instrument& instrument = m_routing.instrument();
+    struct Site {
+        cond::ExprPtr expr;
+        int position;     // where it is evaluated
+        int evaluatedSet; // exact set of assignments on which it is evaluated
+        QString field;
+        bool module;
+        int limit; // reads of items at or after this position are forward references
+    };
+    // Module filters: evaluated at every item of the module; one finding per module.
+    QHash<int, int> moduleSets;
+    QHash<int, int> moduleFirst;
+    QList<Site> sites;
+    for (int i = 0; i < m_routing.itemCount(); ++i) {
+        const ItemIndex::Entry& e = m_routing.index().at(i);
+        if (e.module->askIf) {
+            moduleSets[e.moduleIndex] =
+                mdd.orOp(moduleSets.value(e.moduleIndex, Mdd::False), m_reached[i]);
+            if (!moduleFirst.contains(e.moduleIndex))
+                moduleFirst[e.moduleIndex] = i;
+        }
+    }
+    for (auto it = moduleFirst.constBegin(); it != moduleFirst.constEnd(); ++it) {
+        const Module& module = instrument.modules.at(it.key());
+        if (cond::ExprPtr expr = m_routing.compileCondition(*module.askIf))
+            sites.append(
+                {expr, it.value(), moduleSets.value(it.key()), u"ask_if"_s, true, it.value()});
+    }
+    for (int i = 0; i < m_routing.itemCount(); ++i) {
+        const Item& item = *m_routing.index().at(i).item;
+        if (item.askIf)
+            if (cond::ExprPtr expr = m_routing.compileCondition(*item.askIf))
+                sites.append({expr, i, m_reached[i], u"ask_if"_s, false, i});
+        for (int k = 0; k < item.routing.size(); ++k) {
+            const CompiledRouting::CompiledRule& rule = m_routing.item(i).rules.at(k);
+            if (rule.usable && rule.condition)
+                sites.append(
+                    {rule.condition, i, m_rules[i][k].evaluated, ruleField(k, true), false, i});
+        }
+    }
+    for (const Site& site : sites) {
+        if (site.evaluatedSet == Mdd::False)
+            continue;
+        QStringList empties;
+        std::optional<int> column;
+        int witness = Mdd::False;
+        for (const cond::NameUse& use : cond::namesRead(*site.expr)) {
+            const int x = m_routing.positionOf(use.name);
+            if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x))
+                continue;
+            const QString name = m_routing.index().at(x).item->name;
+            if (empties.contains(name))
+                continue;
+            const int on = mdd.andOp(site.evaluatedSet, m_algebra.emptyOf(x));
+            if (on == Mdd::False)
+                continue;
+            if (empties.isEmpty()) {
+                column = use.column;
+                witness = on;
+            }
+            empties.append(name);
+        }
+        if (empties.isEmpty())
+            continue;
+        Finding f =
+            makeFinding(u"reads-unasked-item"_s, Severity::Warning, site.position, site.field);
+        if (site.module) {
+            f.item.clear();
+        }
+        f.column = column;
+        const QString path = witnessPath(witness, site.position).value_or(QString());
+        f.message = u"the condition reads "_s + empties.first() +
+                    u", which is empty (not presented) on some paths that reach it, e.g. after "_s +
+                    path;
+        if (empties.size() > 1)
+            f.message +=
+                u"; also reads "_s + empties.mid(1).join(u", "_s) + u", which can be empty there"_s;
+        out.append(f);
+    }
+}
+
+Findings RoutingAnalyzer::findings() {
+    Findings out;
+    addLoopFindings(out);
+    addUnreachable(out, structurallyReachable());
+    addRuleFindings(out);
+    addUnaskedReads(out);
+    sortFindings(out);
+    return out;
+}
+
+RoutingAnalysis RoutingAnalyzer::analysis() {
+    RoutingAnalysis result;
+    for (int i = 0; i < m_routing.itemCount(); ++i)
+        result.universes.append(universe(i));
+    result.findings = findings();
+    return result;
+}
+
+} // namespace rb::analysis
+
+namespace rb {
+
+RoutingAnalysis analyzeRouting(const CompiledRouting& routing) {
+    analysis::RoutingAnalyzer analyzer(routing);
+    return analyzer.analysis();
+}
+
+QString askedName(ItemUniverse::Asked asked) {
+    switch (asked) {
+    case ItemUniverse::Asked::Always:
+        return u"always"_s;
+    case ItemUniverse::Asked::Conditional:
+        return u"conditional"_s;
+    case ItemUniverse::Asked::Never:
+        return u"never"_s;
+    }
+    return {};
+}
+
+} // namespace rb

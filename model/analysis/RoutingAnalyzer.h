@@ -1,0 +1,70 @@
+#pragma once
+
+#include "ConditionAlgebra.h"
+#include "Minimiser.h"
+#include "RoutingAnalysis.h"
+#include "UniversePrinter.h"
+
+#include <vector>
+
+namespace rb::analysis {
+
+// The dynamic programme behind analyzeRouting, exposed for tests. In
+// questionnaire order it keeps, per position, the exact set of answer
+// assignments that reach the item (every earlier gate item consistent: empty
+// exactly when not presented, so skipped gate items are set empty on the
+// goto edge) and a "loose" set that ignores emptiness, whose small support
+// is where the printed universe looks for its gate items. Never enumerates
+// paths: each item costs a few diagram operations.
+class RoutingAnalyzer {
+public:
+    explicit RoutingAnalyzer(const CompiledRouting& routing);
+
+    ConditionAlgebra& algebra() { return m_algebra; }
+    int reached(int position) const { return m_reached.at(position); }
+    int presented(int position) const { return m_presented.at(position); }
+    int loosePresented(int position) const { return m_loose.at(position); }
+
+    // The printed universe of one item (also its Sop, for tests).
+    ItemUniverse universe(int position, Sop* sop = nullptr);
+    Findings findings();
+    RoutingAnalysis analysis();
+
+    // Positions of the loops (strongly connected components with a cycle).
+    const std::vector<std::vector<int>>& loops() const { return m_loops; }
+
+private:
+    struct RuleSets {
+        int evaluated = Mdd::False; // exact: rule reached (earlier rules did not fire)
+        int fired = Mdd::False;
+        bool usable = false;
+    };
+    void run();
+    int filterNode(int position);
+    int gapEmpty(int from, int to); // gate items strictly between are empty
+    int consistency(int position);  // C_j: presented iff its loose universe holds
+    int careSet(const QList<int>& keep);
+    QList<int> positionsOf(const std::vector<int>& vars) const;
+    void preferShorterForms(Sop& sop, int on, const UniversePrinter& printer);
+    void findLoops();
+    std::vector<bool> structurallyReachable() const;
+    void addLoopFindings(Findings& out) const;
+    void addUnreachable(Findings& out, const std::vector<bool>& reachable) const;
+    void addRuleFindings(Findings& out);
+    void addUnaskedReads(Findings& out);
+    std::optional<QString> witnessPath(int set, int untilPosition);
+    Finding makeFinding(const QString& check, Severity severity, int position,
+                        const QString& field) const;
+
+    const CompiledRouting& m_routing;
+    ConditionAlgebra m_algebra;
+    std::vector<int> m_reached, m_presented, m_loose, m_looseReached, m_filter;
+    std::vector<std::vector<RuleSets>> m_rules;
+    std::vector<std::vector<int>> m_ruleCondition; // per rule: its condition; false if unusable
+    std::vector<std::vector<int>> m_feasible;      // feasible edges (targets) per position
+    std::vector<std::vector<int>> m_loops;
+    std::vector<bool> m_inLoop;
+    QHash<int, int> m_consistency;
+};
+
+} // namespace rb::analysis
