@@ -1,0 +1,469 @@
+// Tests of the data check (model/data): every class of DESIGN.md's table on a
+// hand-reasoned response file, the analysis file, suppression, the report, and
+// bad files. Expected counts are reasoned by hand from garden.yaml and
+// garden-responses.csv (see the comments), never taken from the program's output.
+#include "PostgresServer.h"
+#include "SqlReplay.h"
+#include "cli/Cli.h"
+#include "data/DataCheck.h"
+#include "data/DataCheckJson.h"
+#include "export/SqlExport.h"
+#include "storage/YamlFormat.h"
+
+#include <QBuffer>
+#include <QFile>
+#include <QJsonArray>
+#include <QJsonDocument>
+#include <QJsonObject>
+#include <QTemporaryDir>
+#include <QTest>
+
+using namespace Qt::StringLiterals;
+using namespace rb;
+
+namespace {
+
+const QString kDir = QStringLiteral(ROUTEBOOK_TESTDATA_DIR "/datacheck/");
+
+Instrument garden() {
+    LoadResult loaded = loadYamlFile(kDir + u"garden.yaml"_s);
+    if (!loaded.ok())
+        qFatal("garden.yaml does not load: %s", qPrintable(formatDiagnostics(loaded.errors)));
+    return *loaded.instrument;
+}
+
+DataCheckOutcome check(const Instrument& instrument, const QByteArray& csv,
+                       DataCheckOptions options = {}) {
+    const CompiledRouting routing(instrument);
+    QBuffer buffer;
+    buffer.setData(csv);
+    buffer.open(QIODevice::ReadOnly);
+    return runDataCheck(routing, buffer, u"data.csv"_s, options);
+}
+
+QByteArray readFile(const QString& path) {
+    QFile f(path);
+    return f.open(QIODevice::ReadOnly) ? f.readAll() : QByteArray();
+}
+
+struct CliRun {
+    int code;
+    QString out, err;
+};
+CliRun runCli(const QStringList& arguments) {
+    QString out, err;
+    QTextStream o(&out), e(&err);
+    const int code = cli::run(arguments, o, e);
+    o.flush();
+    e.flush();
+    return {code, out, err};
+}
+
+const ItemCounts* item(const DataCheckResult& r, const QString& name) {
+    for (const ItemCounts& c : r.items)
+        if (c.name == name)
+            return &c;
+    return nullptr;
+}
+
+qint64 frequency(const ItemCounts& c, qint64 code) {
+    for (const CodeCount& f : c.frequencies)
+        if (f.code == code)
+            return f.count;
+    return -1;
+}
+
+} // namespace
+
+class TestDataCheck : public QObject {
+    Q_OBJECT
+private slots:
+    void classifiesEveryCellByHand_data();
+    void classifiesEveryCellByHand();
+    void frequenciesByHand();
+    void recordLevelProblems();
+    void columnsMatchIgnoringCaseAndAreReported();
+    void analysisFileCodesSkipsAndImpliedValues();
+    void jsonShapeAndSuppression();
+    void htmlReportIsSelfContainedAndSuppresses();
+    void invalidValuesAreListedWithLines();
+    void badFilesFailWithLinesAndNoOutput_data();
+    void badFilesFailWithLinesAndNoOutput();
+    void lineLengthGuardStopsTheCheck();
+    void sqlReplayMatchesOnSqlite_data();
+    void sqlReplayMatchesOnSqlite();
+    void sqlRefusesLoops();
+    void sqlReplayMatchesOnPostgres();
+};
+
+// Routing of garden.yaml: has_garden, then (if has_garden <> 1, i.e. 2, 8, 9 or
+// blank) straight to comments; otherwise beds, tools, last_watered, comments.
+// So beds/tools/last_watered are presented exactly in a1, a5, a6, a8 (has_garden = 1).
+//   a1 1: beds 3 ok; tools {1,3}; date ok; "fine"
+//   a2 2: beds/tools/date blank -> skips (beds implied 0: has_garden = 2); comments blank
+//   a3 9: -1 everywhere (the skip code) -> skips after a refused gate; comments "x"
+//   a4 2: beds 4 although skipped -> violation; tools 0s and date blank -> skips; "ok"
+//   a5 1: beds "abc" invalid; tools none -> blank; 2026-02-30 invalid; comments blank
+//   a6 1: beds 98 don't know; tools {2}; date and comments blank (break-off)
+//   a7 blank: everything blank; has_garden blank so the skips follow a blank gate
+//   a8 1: beds 51 > 50 invalid; tools {9} refused only; date ok; comments text
+void TestDataCheck::classifiesEveryCellByHand_data() {
+    QTest::addColumn<QString>("name");
+    // presented, answered, blank, dont_know, refused, not_applicable, invalid,
+    // legitimate skip, violation, skips after a missing gate, implied
+    QTest::addColumn<QList<qint64>>("expected");
+    QTest::newRow("has_garden") << u"has_garden"_s
+                                << QList<qint64>{8, 6, 1, 0, 1, 0, 0, 0, 0, 0, 0};
+    // presented a1 a5 a6 a8; answered a1; dk a6; invalid a5 a8; skips a2 a3 a7
+    // (a3, a7 after refused / blank gate); violation a4; implied a2.
+    QTest::newRow("beds") << u"beds"_s << QList<qint64>{4, 1, 0, 1, 0, 0, 2, 3, 1, 2, 1};
+    // answered a1 a6; blank a5; refused a8; skips a2 a3 a4 a7 (a3, a7 unknown gate).
+    QTest::newRow("tools") << u"tools"_s << QList<qint64>{4, 2, 1, 0, 1, 0, 0, 4, 0, 2, 0};
+    // answered a1 a8; invalid a5; blank a6; skips a2 a3 a4 a7.
+    QTest::newRow("last_watered") << u"last_watered"_s
+                                  << QList<qint64>{4, 2, 1, 0, 0, 0, 1, 4, 0, 2, 0};
+    // presented everywhere; text a1 a3 a4 a8; blank a2 a5 a6 a7.
+    QTest::newRow("comments") << u"comments"_s << QList<qint64>{8, 4, 4, 0, 0, 0, 0, 0, 0, 0, 0};
+}
+
+void TestDataCheck::classifiesEveryCellByHand() {
+    QFETCH(QString, name);
+    QFETCH(QList<qint64>, expected);
+    const DataCheckOutcome outcome = check(garden(), readFile(kDir + u"garden-responses.csv"_s));
+    QVERIFY2(outcome.result, qPrintable(outcome.error ? outcome.error->toString() : QString()));
+    QCOMPARE(outcome.result->records, 8);
+    const ItemCounts* c = item(*outcome.result, name);
+    QVERIFY(c);
+    const QList<qint64> actual = {c->presented,
+                                  c->answered,
+                                  c->nonresponseByKind[0],
+                                  c->nonresponseByKind[1],
+                                  c->nonresponseByKind[2],
+                                  c->nonresponseByKind[3],
+                                  c->invalid,
+                                  c->legitimateSkip,
+                                  c->routingViolation,
+                                  c->skipAfterMissingGate,
+                                  c->implied};
+    QCOMPARE(actual, expected);
+    // DESIGN.md's identities.
+    QCOMPARE(c->presented, c->answered + c->nonresponse() + c->invalid);
+    QCOMPARE(outcome.result->records, c->presented + c->legitimateSkip + c->routingViolation);
+}
+
+void TestDataCheck::frequenciesByHand() {
+    const DataCheckOutcome outcome = check(garden(), readFile(kDir + u"garden-responses.csv"_s));
+    QVERIFY(outcome.result);
+    const ItemCounts* g = item(*outcome.result, u"has_garden"_s);
+    // 1: a1 a5 a6 a8; 2: a2 a4; 8: none; 9: a3.
+    QCOMPARE(frequency(*g, 1), 4);
+    QCOMPARE(frequency(*g, 2), 2);
+    QCOMPARE(frequency(*g, 8), 0);
+    QCOMPARE(frequency(*g, 9), 1);
+    const ItemCounts* t = item(*outcome.result, u"tools"_s);
+    // chosen among presented: a1 {1,3}, a6 {2}, a8 {9}.
+    QCOMPARE(frequency(*t, 1), 1);
+    QCOMPARE(frequency(*t, 2), 1);
+    QCOMPARE(frequency(*t, 3), 1);
+    QCOMPARE(frequency(*t, 9), 1);
+    // beds has only its missing code 98 as a code: a6.
+    QCOMPARE(frequency(*item(*outcome.result, u"beds"_s), 98), 1);
+}
+
+void TestDataCheck::recordLevelProblems() {
+    DataCheckOptions options;
+    options.idColumn = u"ID"_s; // matched ignoring case
+    const DataCheckOutcome outcome =
+        check(garden(), readFile(kDir + u"garden-responses.csv"_s), options);
+    QVERIFY(outcome.result);
+    const DataCheckResult& r = *outcome.result;
+    QCOMPARE(r.violations.count, 1);
+    QCOMPARE(r.violations.first, QStringList{u"a4"_s});
+    QCOMPARE(r.invalid.count, 2);
+    QCOMPARE(r.invalid.first, (QStringList{u"a5"_s, u"a8"_s}));
+    // a6: last_watered and comments blank to the end after answers. a5 ends with one
+    // blank only, a2 too (has_garden answered, comments blank): not break-offs.
+    QCOMPARE(r.breakOffs.count, 1);
+    QCOMPARE(r.breakOffs.first, QStringList{u"a6"_s});
+    QCOMPARE(item(r, u"last_watered"_s)->breakOffStarts, 1);
+    QCOMPARE(r.emptyRecords.first, QStringList{u"a7"_s});
+    QCOMPARE(r.loops.count, 0);
+    QVERIFY(r.hasProblems());
+    // Without --id-column the first data row is record 1, so a4 is record 4.
+    const DataCheckOutcome plain = check(garden(), readFile(kDir + u"garden-responses.csv"_s));
+    QCOMPARE(plain.result->violations.first, QStringList{u"4"_s});
+}
+
+void TestDataCheck::columnsMatchIgnoringCaseAndAreReported() {
+    // "Has_Garden" matched has_garden; "id" and "extra" are no variables.
+    const DataCheckOutcome full = check(garden(), readFile(kDir + u"garden-responses.csv"_s));
+    QCOMPARE(full.result->unknownColumns, (QStringList{u"id"_s, u"extra"_s}));
+    QVERIFY(full.result->missingColumns.isEmpty());
+    // Without tools_9 and comments: both reported missing (questionnaire order), read blank.
+    const DataCheckOutcome partial =
+        check(garden(), "has_garden,BEDS,tools_1,tools_2,tools_3,last_watered\n2,,,,,\n");
+    QVERIFY(partial.result);
+    QCOMPARE(partial.result->missingColumns, (QStringList{u"tools_9"_s, u"comments"_s}));
+    QCOMPARE(item(*partial.result, u"comments"_s)->nonresponseByKind[0], 1);
+    QCOMPARE(item(*partial.result, u"beds"_s)->implied, 1);
+}
+
+void TestDataCheck::analysisFileCodesSkipsAndImpliedValues() {
+    QTemporaryDir dir;
+    const QString out = dir.filePath(u"analysis.csv"_s);
+    const CliRun run =
+        runCli({u"data-check"_s, kDir + u"garden.yaml"_s, kDir + u"garden-responses.csv"_s,
+                u"--analysis-file"_s, out, u"--flags"_s});
+    QCOMPARE(run.code, 1); // a violation and invalid values
+    const QList<QByteArray> lines = readFile(out).split('\n');
+    QCOMPARE(lines.size(), 10); // header, 8 records, "" after the last CRLF
+    QCOMPARE(lines.at(0), "id,Has_Garden,beds,tools_1,tools_2,tools_3,tools_9,last_watered,"
+                          "comments,extra,has_garden_flag,beds_flag,tools_flag,last_watered_flag,"
+                          "comments_flag\r");
+    // a2: beds implied 0 (has_garden = 2); tools and date get the skip code -1;
+    // the blank comment is nonresponse and stays blank.
+    QCOMPARE(lines.at(2),
+             "a2,2,0,-1,-1,-1,-1,-1,,x,answered,implied,skipped,skipped,nonresponse\r");
+    // a3: refused gate: no implied value, the skip code stays.
+    QCOMPARE(lines.at(3),
+             "a3,9,-1,-1,-1,-1,-1,-1,x,x,nonresponse,skipped,skipped,skipped,answered\r");
+    // a4: the violating 4 is kept as recorded and flagged.
+    QCOMPARE(lines.at(4),
+             "a4,2,4,-1,-1,-1,-1,-1,ok,x,answered,violation,skipped,skipped,answered\r");
+    // a5: invalid values kept as they stand.
+    QCOMPARE(lines.at(5),
+             "a5,1,abc,,,,,2026-02-30,,x,answered,invalid,nonresponse,invalid,nonresponse\r");
+    // a8: a field with a comma and quotes is quoted again.
+    QCOMPARE(lines.at(8), "a8,1,51,0,0,0,1,2026-06-15,\"a, \"\"quoted\"\"\",x,answered,invalid,"
+                          "nonresponse,answered,answered\r");
+}
+
+void TestDataCheck::jsonShapeAndSuppression() {
+    const CliRun exact = runCli(
+        {u"data-check"_s, kDir + u"garden.yaml"_s, kDir + u"garden-responses.csv"_s, u"--json"_s});
+    QCOMPARE(exact.code, 1);
+    const QJsonObject o = QJsonDocument::fromJson(exact.out.toUtf8()).object();
+    QCOMPARE(o.value(u"records"_s).toInt(), 8);
+    const QJsonArray items = o.value(u"items"_s).toArray();
+    QCOMPARE(items.size(), 5);
+    const QJsonObject beds = items.at(1).toObject();
+    QCOMPARE(beds.value(u"name"_s).toString(), u"beds"_s);
+    for (const char* key : {"presented", "answered", "nonresponse", "nonresponse_by_kind",
+                            "invalid", "legitimate_skip", "routing_violation", "frequencies"})
+        QVERIFY2(beds.contains(QLatin1String(key)), key);
+    QCOMPARE(beds.value(u"nonresponse"_s).toInt(), 1);
+    QCOMPARE(beds.value(u"nonresponse_by_kind"_s).toObject().value(u"dont_know"_s).toInt(), 1);
+    QCOMPARE(beds.value(u"routing_violation"_s).toInt(), 1);
+    // 3 legitimate skips of 8 records = 37.5 %.
+    QCOMPARE(beds.value(u"percent"_s).toObject().value(u"legitimate_skip"_s).toDouble(), 37.5);
+    QCOMPARE(o.value(u"unknown_columns"_s).toArray().size(), 2);
+    QCOMPARE(o.value(u"records_with_violations"_s)
+                 .toObject()
+                 .value(u"first"_s)
+                 .toArray()
+                 .at(0)
+                 .toString(),
+             u"4"_s);
+
+    // --suppress-below 3: counts 1 and 2 become "<3"; 0 and 3+ stay numbers.
+    const CliRun suppressed =
+        runCli({u"data-check"_s, kDir + u"garden.yaml"_s, kDir + u"garden-responses.csv"_s,
+                u"--json"_s, u"--suppress-below"_s, u"3"_s});
+    const QJsonObject s = QJsonDocument::fromJson(suppressed.out.toUtf8()).object();
+    const QJsonObject sbeds = s.value(u"items"_s).toArray().at(1).toObject();
+    QCOMPARE(sbeds.value(u"answered"_s).toString(), u"<3"_s); // 1
+    QCOMPARE(sbeds.value(u"invalid"_s).toString(), u"<3"_s);  // 2
+    QCOMPARE(sbeds.value(u"legitimate_skip"_s).toInt(), 3);   // 3
+    QCOMPARE(sbeds.value(u"nonresponse_by_kind"_s).toObject().value(u"refused"_s).toInt(-1), 0);
+    QVERIFY(sbeds.value(u"percent"_s).toObject().value(u"answered"_s).isNull());
+    // Record numbers identify people: not listed under suppression.
+    QVERIFY(!s.value(u"records_with_violations"_s).toObject().contains(u"first"_s));
+    QVERIFY(runCli({u"data-check"_s, kDir + u"garden.yaml"_s, kDir + u"garden-responses.csv"_s,
+                    u"--suppress-below"_s, u"x"_s})
+                .code == cli::BadInput);
+}
+
+void TestDataCheck::htmlReportIsSelfContainedAndSuppresses() {
+    QTemporaryDir dir;
+    const QString report = dir.filePath(u"r.html"_s);
+    const CliRun run = runCli({u"data-check"_s, kDir + u"garden.yaml"_s,
+                               kDir + u"garden-responses.csv"_s, u"--report"_s, report});
+    QCOMPARE(run.code, 1);
+    const QString html = QString::fromUtf8(readFile(report));
+    QVERIFY(html.startsWith(u"<!DOCTYPE html>"_s));
+    QVERIFY(html.contains(u"<svg"_s));
+    QVERIFY(!html.contains(u"<script"_s));
+    QVERIFY(!html.contains(u"src=\""_s) && !html.contains(u"href=\"http"_s)); // nothing external
+    QVERIFY(html.contains(u"Personal data"_s));
+    QVERIFY(html.contains(u"ethics board"_s));
+    // Default threshold 5 (common practice, no source): beds' 3 skips show as "<5".
+    QVERIFY(html.contains(u"<td class=\"n\">&lt;5</td>"_s));
+    // Question text is escaped ("Don't know" labels carry an apostrophe; the
+    // comment cell with quotes never appears: aggregate output only).
+    QVERIFY(!html.contains(u"quoted"_s));
+    // The universe beside beds: conditional on has_garden.
+    QVERIFY(html.contains(u"CONDITIONAL"_s));
+}
+
+void TestDataCheck::invalidValuesAreListedWithLines() {
+    const CliRun run =
+        runCli({u"data-check"_s, kDir + u"garden.yaml"_s, kDir + u"garden-responses.csv"_s});
+    QCOMPARE(run.code, 1);
+    // a5 is on line 6 (header = line 1); beds is column 3, last_watered column 8.
+    QVERIFY2(run.err.contains(kDir + u"garden-responses.csv:6:3: record 5: invalid value 'abc' "
+                                     "for integer item 'beds'"_s),
+             qPrintable(run.err));
+    QVERIFY(run.err.contains(kDir + u"garden-responses.csv:6:8: record 5: invalid value "
+                                    "'2026-02-30' for date item 'last_watered'"_s));
+    QVERIFY(run.err.contains(u"garden-responses.csv:9:3: record 8: invalid value '51'"_s));
+}
+
+void TestDataCheck::badFilesFailWithLinesAndNoOutput_data() {
+    QTest::addColumn<QByteArray>("csv");
+    QTest::addColumn<QString>("where");
+    QTest::addColumn<QString>("words");
+    const QByteArray header =
+        "has_garden,beds,tools_1,tools_2,tools_3,tools_9,last_watered,comments\n";
+    QTest::newRow("ragged row") << header + "1,2,0,0,0,0,,\n1,2,0\n"
+                                << u":3:1:"_s << u"record 2 has 3 fields; the header has 8"_s;
+    QTest::newRow("unterminated quote") << header + "1,2,0,0,0,0,,\n2,,,,,,,\"no end\n"
+                                        << u":3:9:"_s << u"unterminated quoted field"_s;
+    QTest::newRow("duplicate column")
+        << QByteArray("beds,BEDS\n1,1\n") << u":1:2:"_s << u"appears twice"_s;
+    QTest::newRow("empty file") << QByteArray() << u":1:1:"_s << u"empty"_s;
+}
+
+void TestDataCheck::badFilesFailWithLinesAndNoOutput() {
+    QFETCH(QByteArray, csv);
+    QFETCH(QString, where);
+    QFETCH(QString, words);
+    QTemporaryDir dir;
+    const QString data = dir.filePath(u"bad.csv"_s);
+    QFile f(data);
+    QVERIFY(f.open(QIODevice::WriteOnly));
+    f.write(csv);
+    f.close();
+    const QString analysis = dir.filePath(u"out.csv"_s), report = dir.filePath(u"out.html"_s);
+    const CliRun run = runCli({u"data-check"_s, kDir + u"garden.yaml"_s, data, u"--analysis-file"_s,
+                               analysis, u"--report"_s, report});
+    QCOMPARE(run.code, cli::BadInput);
+    QVERIFY2(run.err.contains(data + where), qPrintable(run.err));
+    QVERIFY2(run.err.contains(words), qPrintable(run.err));
+    QVERIFY(!QFile::exists(analysis)); // no partial output file
+    QVERIFY(!QFile::exists(report));
+    QVERIFY(run.out.isEmpty());
+}
+
+void TestDataCheck::lineLengthGuardStopsTheCheck() {
+    // The header "has_garden,beds" is 15 bytes, record 1 "1,2" 3 bytes, record 2
+    // "1,12345678901234567" 19 bytes on line 3 (line ends not counted).
+    DataCheckOptions options;
+    options.maxRecordBytes = 10;
+    const DataCheckOutcome outcome =
+        check(garden(), "has_garden,beds\n1,2\n1,12345678901234567\n", options);
+    QVERIFY(!outcome.result);
+    // The header itself is 15 bytes: the guard already stops there (line 1).
+    QCOMPARE(outcome.error->line, 1);
+    options.maxRecordBytes = 16;
+    const DataCheckOutcome second =
+        check(garden(), "has_garden,beds\n1,2\n1,12345678901234567\n", options);
+    QVERIFY(!second.result);
+    QCOMPARE(second.error->line, 3);
+    QVERIFY(second.error->message.contains(u"line-length guard of 16 bytes"_s));
+}
+
+// The SQL export run by SQLite on random responses (fixed seeds) must give exactly
+// the per-item class counts of the in-process data check.
+void TestDataCheck::sqlReplayMatchesOnSqlite_data() {
+    QTest::addColumn<QString>("instrument");
+    QTest::addColumn<quint32>("seed");
+    QTest::newRow("garden") << kDir + u"garden.yaml"_s << 7u;
+    QTest::newRow("household energy sample")
+        << QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/household-energy.yaml") << 11u;
+    QTest::newRow("household energy sample, other seed")
+        << QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/household-energy.yaml") << 12u;
+}
+
+void TestDataCheck::sqlReplayMatchesOnSqlite() {
+    QFETCH(QString, instrument);
+    QFETCH(quint32, seed);
+    LoadResult loaded = loadYamlFile(instrument);
+    QVERIFY(loaded.ok());
+    const CompiledRouting routing(*loaded.instrument);
+    const GeneratedResponses data = generateResponses(routing, 400, seed);
+    QBuffer buffer;
+    buffer.setData(data.csv());
+    buffer.open(QIODevice::ReadOnly);
+    const DataCheckOutcome outcome = runDataCheck(routing, buffer, u"gen.csv"_s, {});
+    QVERIFY2(outcome.result, qPrintable(outcome.error ? outcome.error->toString() : QString()));
+    QVERIFY(outcome.result->violations.count > 0 && outcome.result->invalid.count > 0);
+    const SqlExport sql = exportSql(routing);
+    QVERIFY(!sql.error);
+    QString error;
+    const QStringList fromSql = runOnSqlite(data, sql.sql, error);
+    QVERIFY2(error.isEmpty(), qPrintable(error));
+    QCOMPARE(fromSql, countRows(*outcome.result));
+}
+
+void TestDataCheck::sqlRefusesLoops() {
+    LoadResult loaded = loadYamlText(R"(routebook: 1
+instrument: {title: "Loop", version: "1", language: "en"}
+modules:
+  - name: m
+    items:
+      - {name: a, text: "A?", type: integer, range: [0, 9]}
+      - {name: b, text: "B?", type: integer, range: [0, 9], routing: [{if: "b = 1", goto: a}]}
+)",
+                                     u"loop.yaml"_s);
+    QVERIFY2(loaded.ok(), qPrintable(formatDiagnostics(loaded.errors)));
+    const SqlExport sql = exportSql(CompiledRouting(*loaded.instrument));
+    QVERIFY(sql.error);
+    QVERIFY(sql.error->contains(u"goto back"_s));
+}
+
+// The same SQL on a real PostgreSQL server, data loaded with psql's \\copy (blank
+// fields arrive as NULL). Skips when PostgreSQL is not installed, or when
+// ROUTEBOOK_SKIP_POSTGRES is set (for quick runs).
+void TestDataCheck::sqlReplayMatchesOnPostgres() {
+    if (qEnvironmentVariableIsSet("ROUTEBOOK_SKIP_POSTGRES"))
+        QSKIP("ROUTEBOOK_SKIP_POSTGRES is set");
+    PostgresServer server;
+    if (!server.available())
+        QSKIP(qPrintable(server.problem()));
+    QVERIFY2(server.problem().isEmpty(), qPrintable(server.problem()));
+    LoadResult loaded =
+        loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/household-energy.yaml"));
+    QVERIFY(loaded.ok());
+    const CompiledRouting routing(*loaded.instrument);
+    const GeneratedResponses data = generateResponses(routing, 500, 21);
+    QBuffer buffer;
+    buffer.setData(data.csv());
+    buffer.open(QIODevice::ReadOnly);
+    const DataCheckOutcome outcome = runDataCheck(routing, buffer, u"gen.csv"_s, {});
+    QVERIFY(outcome.result);
+    const QString csvPath = server.folder() + u"/gen.csv"_s,
+                  scriptPath = server.folder() + u"/check.sql"_s;
+    QFile csv(csvPath);
+    QVERIFY(csv.open(QIODevice::WriteOnly));
+    csv.write(data.csv());
+    csv.close();
+    QStringList columns;
+    for (const QString& c : data.columns)
+        columns.append(u"\""_s + c + u"\" TEXT"_s);
+    QFile script(scriptPath);
+    QVERIFY(script.open(QIODevice::WriteOnly));
+    script.write("DROP TABLE IF EXISTS responses;\nCREATE TABLE responses (" +
+                 columns.join(u", "_s).toUtf8() + ");\n\\copy responses FROM '" + csvPath.toUtf8() +
+                 "' WITH (FORMAT csv, HEADER true)\n" + exportSql(routing).sql);
+    script.close();
+    QString error;
+    const QString output = server.runScript(scriptPath, error);
+    QVERIFY2(error.isEmpty(), qPrintable(error));
+    QStringList rows;
+    for (const QString& line : output.split(u'\n', Qt::SkipEmptyParts))
+        rows.append(line.section(u',', 1)); // drop the position column
+    QCOMPARE(rows, countRows(*outcome.result));
+}
+
+QTEST_GUILESS_MAIN(TestDataCheck)
+#include "tst_datacheck.moc"
