@@ -1,0 +1,164 @@
+// Generates a large invented instrument (dense forward skips, filters, about
+// 20% of items conditional, shared code lists) and times the routing analysis:
+// compiling every condition plus all universes and semantic findings.
+// Median of 5 runs per size, and the peak resident memory of the process.
+
+#include "analysis/RoutingAnalysis.h"
+#include "analysis/RoutingAnalyzer.h"
+#include "routing/CompiledRouting.h"
+
+#include <QCoreApplication>
+#include <QElapsedTimer>
+#include <QRandomGenerator>
+
+#include <sys/resource.h>
+
+#include <algorithm>
+#include <cstdio>
+
+using namespace rb;
+using namespace Qt::StringLiterals;
+
+namespace {
+
+Code code(qint64 value, const QString& label, MissingKind missing = MissingKind::None) {
+    Code c;
+    c.code = value;
+    c.label = label;
+    c.missing = missing;
+    return c;
+}
+
+Instrument generate(int count, quint32 seed) {
+    QRandomGenerator rng(seed);
+    Instrument ins;
+    ins.title = u"Generated garden survey"_s;
+    ins.version = u"1"_s;
+    ins.codeLists = {
+        {u"yes_no"_s,
+         {code(1, u"Yes"_s), code(2, u"No"_s), code(8, u"Don't know"_s, MissingKind::DontKnow),
+          code(9, u"Refused"_s, MissingKind::Refused)}},
+        {u"scale"_s,
+         {code(1, u"Never"_s), code(2, u"Rarely"_s), code(3, u"Sometimes"_s), code(4, u"Often"_s),
+          code(5, u"Always"_s), code(9, u"Refused"_s, MissingKind::Refused)}}};
+    const int perModule = 50;
+    QStringList names;
+    QList<ItemType> types;
+    for (int i = 0; i < count; ++i) {
+        if (i % perModule == 0) {
+            Module m;
+            m.name = u"m"_s + QString::number(i / perModule);
+            m.title = m.name;
+            ins.modules.append(m);
+        }
+        Item it;
+        it.name = u"q"_s + QString::number(i);
+        it.label = u"Question "_s + QString::number(i);
+        it.text = it.label + u'?';
+        const int kind = int(rng.bounded(10));
+        if (kind < 5) {
+            it.type = ItemType::Single;
+            it.codeListName = u"yes_no"_s;
+        } else if (kind < 8) {
+            it.type = ItemType::Single;
+            it.codeListName = u"scale"_s;
+        } else {
+            it.type = ItemType::Integer;
+            it.range = std::make_pair(RangeBound{u"0"_s, 0}, RangeBound{u"50"_s, 50});
+            it.missing = {code(98, u"Don't know"_s, MissingKind::DontKnow)};
+        }
+        auto recent = [&](int back) {
+            return std::max(0, i - 1 - int(rng.bounded(quint32(back))));
+        };
+        auto atomOn = [&](int p) {
+            const QString n = names.at(p);
+            if (types.at(p) == ItemType::Integer)
+                return n + u" >= "_s + QString::number(rng.bounded(40));
+            return rng.bounded(2) ? n + u" = 1"_s : n + u" in (2..4)"_s;
+        };
+        if (i > 0 && rng.bounded(100) < 4) {
+            QString cond = atomOn(recent(8));
+            if (rng.bounded(3) == 0)
+                cond += u" and "_s + atomOn(recent(8));
+            it.askIf = cond;
+        }
+        // Dense forward skips: a fifth of the items skip the next one or two items on
+        // their own answer (about 20% of all items end up conditional).
+        if (rng.bounded(100) < 20 && i + 2 < count) {
+            Rule r;
+            r.condition =
+                it.type == ItemType::Integer ? it.name + u" = 0"_s : it.name + u" in (2, 8, 9)"_s;
+            r.target = u"q"_s + QString::number(std::min(count - 1, i + 2 + int(rng.bounded(2))));
+            it.routing.append(r);
+        }
+        names.append(it.name);
+        types.append(it.type);
+        ins.modules.last().items.append(it);
+    }
+    return ins;
+}
+
+long peakKilobytes() {
+    rusage usage{};
+    getrusage(RUSAGE_SELF, &usage);
+    return usage.ru_maxrss;
+}
+
+} // namespace
+
+int main(int argc, char** argv) {
+    QCoreApplication app(argc, argv);
+    QList<int> sizes;
+    for (int i = 1; i < argc; ++i)
+        sizes.append(QString::fromUtf8(argv[i]).toInt());
+    if (sizes.isEmpty())
+        sizes = {500, 5000, 50000};
+    double previous = 0;
+    for (int size : sizes) {
+        const Instrument ins = generate(size, 4242);
+        QList<double> runs;
+        int conditional = 0, findings = 0;
+        for (int run = 0; run < 5; ++run) {
+            QElapsedTimer timer;
+            timer.start();
+            const CompiledRouting routing(ins);
+            const RoutingAnalysis analysis = analyzeRouting(routing);
+            runs.append(double(timer.nsecsElapsed()) / 1e6);
+            conditional = 0;
+            for (const ItemUniverse& u : analysis.universes)
+                conditional += u.asked == ItemUniverse::Asked::Conditional ? 1 : 0;
+            findings = int(analysis.findings.size());
+        }
+        {
+            // One more run split into phases, for the closing note.
+            QElapsedTimer t;
+            t.start();
+            const CompiledRouting routing(ins);
+            const double compile = double(t.nsecsElapsed()) / 1e6;
+            analysis::RoutingAnalyzer analyzer(routing);
+            const double dp = double(t.nsecsElapsed()) / 1e6;
+            for (int p = 0; p < routing.itemCount(); ++p)
+                analyzer.universe(p);
+            const double universes = double(t.nsecsElapsed()) / 1e6;
+            analyzer.findings();
+            const double all = double(t.nsecsElapsed()) / 1e6;
+            std::printf(
+                "        phases: compile %.1f, programme %.1f, universes %.1f, findings %.1f ms; "
+                "%zu diagram nodes\n",
+                compile, dp - compile, universes - dp, all - universes,
+                analyzer.algebra().mdd().nodeCount());
+        }
+        std::sort(runs.begin(), runs.end());
+        const double median = runs.at(2);
+        std::printf("%6d items: median %9.1f ms (min %.1f, max %.1f), %d conditional, %d findings, "
+                    "peak RSS %ld MB",
+                    size, median, runs.first(), runs.last(), conditional, findings,
+                    peakKilobytes() / 1024);
+        if (previous > 0)
+            std::printf(", growth x%.1f", median / previous);
+        std::printf("\n");
+        std::fflush(stdout);
+        previous = median;
+    }
+    return 0;
+}
