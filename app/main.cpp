@@ -5,8 +5,10 @@
 
 #include <QApplication>
 #include <QCoreApplication>
+#include <QGuiApplication>
 
 #include <cstdio>
+#include <memory>
 
 namespace {
 
@@ -17,10 +19,30 @@ QStringList argumentsOf(int argc, char** argv) {
     return arguments;
 }
 
+// Exports that draw (PDF, pictures) need QtGui's fonts and painting: they get
+// a QGuiApplication, on the offscreen platform when there is no display.
+bool commandDraws(const QStringList& arguments) {
+    if (arguments.value(0) != QLatin1String("export"))
+        return false;
+    const QString format = arguments.value(arguments.indexOf(QStringLiteral("--format")) + 1);
+    return format == QLatin1String("pdf") || format == QLatin1String("svg") ||
+           format == QLatin1String("png");
+}
+
+bool haveDisplay();
+
 int runCommand(int argc, char** argv) {
-    QCoreApplication app(argc, argv);
+    const QStringList arguments = argumentsOf(argc, argv);
+    std::unique_ptr<QCoreApplication> app;
+    if (commandDraws(arguments)) {
+        if (!haveDisplay())
+            qputenv("QT_QPA_PLATFORM", "offscreen");
+        app = std::make_unique<QGuiApplication>(argc, argv);
+    } else {
+        app = std::make_unique<QCoreApplication>(argc, argv);
+    }
     QTextStream out(stdout), err(stderr);
-    const int code = rb::cli::run(argumentsOf(argc, argv), out, err);
+    const int code = rb::cli::run(arguments, out, err);
     out.flush();
     err.flush();
     return code;
