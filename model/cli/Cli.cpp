@@ -2,6 +2,7 @@
 
 #include "CommandArgs.h"
 #include "Commands.h"
+#include "DataCheckCommand.h"
 #include "storage/InstrumentFile.h"
 
 namespace rb::cli {
@@ -14,6 +15,7 @@ struct CommandEntry {
 const CommandEntry kCommands[] = {
     {"check", runCheck},   {"gates", runGates},     {"route", runRoute},
     {"export", runExport}, {"convert", runConvert},
+    {"data-check", runDataCheckCommand},
 };
 } // namespace
 
@@ -24,8 +26,12 @@ QString usage() {
         "input)\n"
         "       routebook gates FILE [--json]         universe of every item\n"
         "       routebook route FILE --answers A.json path of one respondent (JSON)\n"
-        "       routebook export FILE --format yaml|dot [-o OUT]\n"
+        "       routebook export FILE --format yaml|dot|svg|html|pdf|md|csv|ddi [-o OUT]\n"
+        "                 [--page-size a4|letter]     pdf needs -o OUT\n"
         "       routebook convert IN OUT              YAML <-> .routebook by extension\n"
+        "       routebook data-check FILE DATA.csv [--json] [--report R.html]\n"
+        "                 [--analysis-file OUT.csv [--flags]] [--suppress-below N] [--id-column NAME]\n"
+        "                                             classify every cell (exit 0 clean, 1 problems)\n"
         "       routebook --help | --version\n"
         "FILE is a .routebook project or a .yaml instrument.\n");
 }

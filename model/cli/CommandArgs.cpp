@@ -3,9 +3,12 @@
 namespace rb::cli {
 
 namespace {
-const QStringList kFlags = {QStringLiteral("--json")};
+const QStringList kFlags = {QStringLiteral("--json"), QStringLiteral("--flags")};
 const QStringList kOptions = {QStringLiteral("--format"), QStringLiteral("-o"),
-                              QStringLiteral("--answers"), QStringLiteral("--table")};
+                              QStringLiteral("--answers"), QStringLiteral("--table"),
+                              QStringLiteral("--report"), QStringLiteral("--analysis-file"),
+                              QStringLiteral("--suppress-below"), QStringLiteral("--id-column"),
+                              QStringLiteral("--page-size")};
 } // namespace
 
 QString CommandArgs::parse(const QStringList& words) {

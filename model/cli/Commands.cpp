@@ -3,7 +3,10 @@
 #include "Cli.h"
 #include "JsonOutput.h"
 #include "check/InstrumentCheck.h"
+#include "dictionary/DictionaryExport.h"
 #include "export/DotExport.h"
+#include "export/SqlExport.h"
+#include "export/SvgExport.h"
 #include "routing/AnswerReplay.h"
 #include "storage/InstrumentFile.h"
 #include "storage/YamlFormat.h"
@@ -133,11 +136,25 @@ int runCheck(const CommandArgs& args, QTextStream& out, QTextStream& err) {
     return countFindings(findings).errors > 0 ? Problems : Ok;
 }
 
-int runGates(const CommandArgs& args, QTextStream&, QTextStream& err) {
+int runGates(const CommandArgs& args, QTextStream& out, QTextStream& err) {
     if (!expectPositional(args, 1, QStringLiteral("gates"), err))
         return BadInput;
-    err << "routebook gates: universes are not available in this build yet\n";
-    return BadInput;
+    const std::optional<Instrument> instrument = loadOrReport(args.positional().first(), err);
+    if (!instrument)
+        return BadInput;
+    const CompiledRouting routing(*instrument);
+    const RoutingAnalysis analysis = analyzeRouting(routing);
+    if (args.flag(QStringLiteral("--json"))) {
+        out << QString::fromUtf8(QJsonDocument(gatesToJson(analysis)).toJson());
+        return Ok;
+    }
+    for (const ItemUniverse& u : analysis.universes) {
+        out << u.name << ": " << askedName(u.asked);
+        if (u.asked == ItemUniverse::Asked::Conditional)
+            out << " if " << u.askedIf << "\n    " << u.plain;
+        out << '\n';
+    }
+    return Ok;
 }
 
 int runRoute(const CommandArgs& args, QTextStream& out, QTextStream& err) {
@@ -168,8 +185,11 @@ int runExport(const CommandArgs& args, QTextStream& out, QTextStream& err) {
     if (!expectPositional(args, 1, QStringLiteral("export"), err))
         return BadInput;
     const QString format = args.option(QStringLiteral("--format"));
-    if (format != QLatin1String("yaml") && format != QLatin1String("dot")) {
-        err << "routebook export: --format must be one of: yaml, dot"
+    if (format != QLatin1String("yaml") && format != QLatin1String("dot") &&
+        format != QLatin1String("svg") && format != QLatin1String("sql") &&
+        !isDictionaryFormat(format)) {
+        err << "routebook export: --format must be one of: yaml, dot, svg, sql, "
+            << dictionaryFormats().join(QStringLiteral(", "))
             << (format.isEmpty() ? QString() : QStringLiteral(" (got '%1')").arg(format)) << '\n';
         return BadInput;
     }
@@ -179,6 +199,30 @@ int runExport(const CommandArgs& args, QTextStream& out, QTextStream& err) {
     if (format == QLatin1String("yaml"))
         return writeOutput(args, saveYamlText(*instrument), out, err);
     const CompiledRouting routing(*instrument);
+    if (format == QLatin1String("svg"))
+        return writeOutput(args, exportSvg(routing), out, err);
+    if (format == QLatin1String("sql")) {
+        const SqlExport sql = exportSql(routing, args.option(QStringLiteral("--table")));
+        if (sql.error) {
+            err << "routebook export: " << *sql.error << '\n';
+            return BadInput;
+        }
+        return writeOutput(args, sql.sql, out, err);
+    }
+    if (isDictionaryFormat(format)) {
+        // PDF is binary: it goes to a file, never through the text stream.
+        if (format == QLatin1String("pdf") && !args.hasOption(QStringLiteral("-o"))) {
+            err << "routebook export: --format pdf needs -o OUT\n";
+            return BadInput;
+        }
+        const DictionaryExportResult dictionary =
+            exportDictionary(routing, format, args.option(QStringLiteral("--page-size")));
+        if (!dictionary.error.isEmpty()) {
+            err << "routebook export: " << dictionary.error << '\n';
+            return BadInput;
+        }
+        return writeOutput(args, dictionary.bytes, out, err);
+    }
     return writeOutput(args, exportDot(routing), out, err);
 }
 
