@@ -4,7 +4,12 @@
 
 namespace rb {
 
-QString dotQuoted(const QString& text) {
+// Graphviz refuses quoted strings beyond 16,384 characters; a label longer
+// than this is cut (the full text stays in the dictionary and the project).
+constexpr qsizetype kMaxDotText = 2000;
+
+QString dotQuoted(const QString& full) {
+    const QString text = full.size() > kMaxDotText ? full.left(kMaxDotText) + QChar(0x2026) : full;
     QString out;
     out.reserve(text.size() + 2);
     out += QLatin1Char('"');
@@ -73,8 +78,8 @@ void writeEdges(const CompiledRouting& routing, QTextStream& out) {
 QByteArray exportDot(const CompiledRouting& routing) {
     QString text;
     QTextStream out(&text);
-    out << "digraph routebook {\n  graph [label="
-        << dotQuoted(routing.instrument().title) << "];\n  node [shape=box];\n";
+    out << "digraph routebook {\n  graph [label=" << dotQuoted(routing.instrument().title)
+        << "];\n  node [shape=box];\n";
     writeNodes(routing, out);
     writeEdges(routing, out);
     out << "}\n";

@@ -67,11 +67,13 @@ void TestCheck::findings_data() {
     QTest::addColumn<QByteArray>("items");
     QTest::addColumn<QStringList>("expected");
 
-    const QByteArray owns = "      - {name: owns, text: \"Own a garden?\", type: single, codes: yes_no}\n";
+    const QByteArray owns =
+        "      - {name: owns, text: \"Own a garden?\", type: single, codes: yes_no}\n";
 
     // "owns =" has 6 characters: the missing value is reported at the end, column 7.
-    QTest::newRow("syntax") << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns =\"}\n"
-                            << QStringList{QStringLiteral("syntax size ask_if 7")};
+    QTest::newRow("syntax")
+        << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns =\"}\n"
+        << QStringList{QStringLiteral("syntax size ask_if 7")};
     // "ownz" starts at column 1.
     QTest::newRow("unknown-variable")
         << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"ownz = 1\"}\n"
@@ -85,33 +87,38 @@ void TestCheck::findings_data() {
         << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"size > 3\"}\n"
         // ... and since `size` is empty when its own filter runs, `size > 3`
         // never holds: the item is unreachable (field empty: about the item).
-        << QStringList{QStringLiteral("forward-reference size ask_if 1"),
-                       QStringLiteral("unreachable-item size  -")};
+        // (Findings sort by field: the item-level one, field "", comes first.)
+        << QStringList{QStringLiteral("unreachable-item size  -"),
+                       QStringLiteral("forward-reference size ask_if 1")};
     // A rule reading a later item: "owns = 1 and size > 2", `size` at column 14.
     QTest::newRow("forward-reference later")
-        << QByteArray("      - name: owns\n        text: Own a garden?\n        type: single\n        codes: yes_no\n"
-           "        routing: [{if: \"owns = 1 and size > 2\", goto: END}]\n"
-           "      - {name: size, text: \"Size?\", type: integer}\n")
+        << QByteArray("      - name: owns\n        text: Own a garden?\n        type: single\n     "
+                      "   codes: yes_no\n"
+                      "        routing: [{if: \"owns = 1 and size > 2\", goto: END}]\n"
+                      "      - {name: size, text: \"Size?\", type: integer}\n")
         // `size` is empty when the rule runs, so `size > 2` never holds and the rule never fires.
         << QStringList{QStringLiteral("forward-reference owns routing[0].if 14"),
                        QStringLiteral("rule-never-fires owns routing[0].if 1")};
     QTest::newRow("unknown-target")
-        << QByteArray("      - {name: owns, text: \"Own?\", type: single, codes: yes_no, routing: [{if: \"owns = 2\", goto: nowhere}]}\n"
-           "      - {name: size, text: \"Size?\", type: integer}\n")
+        << QByteArray("      - {name: owns, text: \"Own?\", type: single, codes: yes_no, routing: "
+                      "[{if: \"owns = 2\", goto: nowhere}]}\n"
+                      "      - {name: size, text: \"Size?\", type: integer}\n")
         << QStringList{QStringLiteral("unknown-target owns routing[0].goto -")};
     // goto the very next item does nothing the questionnaire would not do anyway.
     QTest::newRow("redundant-goto")
-        << QByteArray("      - {name: owns, text: \"Own?\", type: single, codes: yes_no, routing: [{if: \"owns = 2\", goto: size}]}\n"
-           "      - {name: size, text: \"Size?\", type: integer}\n")
+        << QByteArray("      - {name: owns, text: \"Own?\", type: single, codes: yes_no, routing: "
+                      "[{if: \"owns = 2\", goto: size}]}\n"
+                      "      - {name: size, text: \"Size?\", type: integer}\n")
         << QStringList{QStringLiteral("redundant-goto owns routing[0].goto -")};
     QTest::newRow("duplicate-name ignoring case")
         << owns + "      - {name: OWNS, text: \"Again?\", type: integer}\n"
         << QStringList{QStringLiteral("duplicate-name OWNS name -")};
     // A multi item's variable beds_2 collides with a later item of that name.
     QTest::newRow("duplicate-name multi variable")
-        << QByteArray("      - name: beds\n        text: Which beds?\n        type: multi\n        codes:\n"
-           "          - {code: 1, label: Roses}\n          - {code: 2, label: Herbs}\n"
-           "      - {name: beds_2, text: \"How many herb beds?\", type: integer}\n")
+        << QByteArray("      - name: beds\n        text: Which beds?\n        type: multi\n        "
+                      "codes:\n"
+                      "          - {code: 1, label: Roses}\n          - {code: 2, label: Herbs}\n"
+                      "      - {name: beds_2, text: \"How many herb beds?\", type: integer}\n")
         << QStringList{QStringLiteral("duplicate-name beds_2 name -")};
     QTest::newRow("invalid-name")
         << QByteArray("      - {name: 2nd_plot, text: \"Second plot?\", type: integer}\n")
@@ -120,8 +127,9 @@ void TestCheck::findings_data() {
         << QByteArray("      - {name: asked, text: \"Asked?\", type: integer}\n")
         << QStringList{QStringLiteral("invalid-name asked name -")};
     QTest::newRow("duplicate-code inline")
-        << QByteArray("      - name: soil\n        text: Soil type?\n        type: single\n        codes:\n"
-           "          - {code: 1, label: Clay}\n          - {code: 1, label: Sand}\n")
+        << QByteArray("      - name: soil\n        text: Soil type?\n        type: single\n        "
+                      "codes:\n"
+                      "          - {code: 1, label: Clay}\n          - {code: 1, label: Sand}\n")
         << QStringList{QStringLiteral("duplicate-code soil codes[1] -")};
     QTest::newRow("empty-code-list inline")
         << QByteArray("      - {name: soil, text: \"Soil type?\", type: single, codes: []}\n")
@@ -132,26 +140,26 @@ void TestCheck::findings_data() {
     QTest::newRow("bad-range on text")
         << QByteArray("      - {name: note, text: \"Note?\", type: text, range: [1, 2]}\n")
         << QStringList{QStringLiteral("bad-range note range -")};
-    QTest::newRow("missing-text")
-        << QByteArray("      - {name: size, type: integer}\n")
-        << QStringList{QStringLiteral("missing-text size text -")};
+    QTest::newRow("missing-text") << QByteArray("      - {name: size, type: integer}\n")
+                                  << QStringList{QStringLiteral("missing-text size text -")};
     // yes_no holds 1, 2, 9: 5 is none of them. The atom starts at column 1.
     QTest::newRow("unknown-code")
         << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns = 5\"}\n"
         // `owns = 5` never holds, so `size` is never asked.
-        << QStringList{QStringLiteral("unknown-code size ask_if 1"),
-                       QStringLiteral("unreachable-item size  -")};
+        << QStringList{QStringLiteral("unreachable-item size  -"),
+                       QStringLiteral("unknown-code size ask_if 1")};
     // 3..4 holds none of 1, 2, 9; the `in` atom starts at column 1.
     QTest::newRow("unknown-code range")
-        << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns in (1, 3..4)\"}\n"
+        << owns + "      - {name: size, text: \"Size?\", type: integer, ask_if: \"owns in (1, "
+                  "3..4)\"}\n"
         << QStringList{QStringLiteral("unknown-code size ask_if 1")};
     // The range 1..50 holds no value above 100; `size > 100` starts at column 1.
     QTest::newRow("unknown-code numeric")
         << QByteArray("      - {name: size, text: \"Size?\", type: integer, range: [1, 50]}\n"
-           "      - {name: big, text: \"Big?\", type: text, ask_if: \"size > 100\"}\n")
+                      "      - {name: big, text: \"Big?\", type: text, ask_if: \"size > 100\"}\n")
         // No presented size exceeds 50, so `big` is never asked.
-        << QStringList{QStringLiteral("unknown-code big ask_if 1"),
-                       QStringLiteral("unreachable-item big  -")};
+        << QStringList{QStringLiteral("unreachable-item big  -"),
+                       QStringLiteral("unknown-code big ask_if 1")};
 }
 
 void TestCheck::findings() {
@@ -159,13 +167,15 @@ void TestCheck::findings() {
     QFETCH(QStringList, expected);
     // yes_no is used by some rows only; leave unused-code-list out of the comparison.
     QStringList actual = summarize(findingsOf(instrumentYaml(items)));
-    actual.removeIf([](const QString& s) { return s.startsWith(QLatin1String("unused-code-list")); });
+    actual.removeIf(
+        [](const QString& s) { return s.startsWith(QLatin1String("unused-code-list")); });
     QCOMPARE(actual, expected);
 }
 
 void TestCheck::cleanInstrumentHasNoFindings() {
     const QByteArray items =
-        "      - name: owns\n        text: Own a garden?\n        type: single\n        codes: yes_no\n"
+        "      - name: owns\n        text: Own a garden?\n        type: single\n        codes: "
+        "yes_no\n"
         "        routing: [{if: \"owns in (2, 9)\", goto: END}]\n"
         "      - {name: size, text: \"Size in square metres?\", type: integer, range: [1, 5000]}\n";
     QCOMPARE(summarize(findingsOf(instrumentYaml(items))), QStringList());
@@ -174,9 +184,8 @@ void TestCheck::cleanInstrumentHasNoFindings() {
 void TestCheck::findingIdsAndOrder() {
     // Two findings on the same item: sorted by field ("ask_if" < "text"), and
     // the id is check:item:field.
-    const QByteArray items =
-        "      - {name: owns, text: \"Own?\", type: single, codes: yes_no}\n"
-        "      - {name: size, type: integer, ask_if: \"nothing = 1\"}\n";
+    const QByteArray items = "      - {name: owns, text: \"Own?\", type: single, codes: yes_no}\n"
+                             "      - {name: size, type: integer, ask_if: \"nothing = 1\"}\n";
     const Findings f = findingsOf(instrumentYaml(items));
     QCOMPARE(f.size(), 2);
     QCOMPARE(f.at(0).id(), QStringLiteral("unknown-variable:size:ask_if"));
@@ -202,14 +211,16 @@ void TestCheck::testRespondentReplay() {
         "      - name: owns\n        text: Own?\n        type: single\n        codes: yes_no\n"
         "        routing: [{if: \"owns = 2\", goto: END}]\n"
         "      - {name: size, text: \"Size?\", type: integer}\n";
-    const QByteArray good = "test_respondents:\n"
-                            "  - {name: no_garden, answers: {owns: 2}, path: [owns]}\n"
-                            "  - {name: garden, answers: {owns: 1, size: 40}, path: [owns, size]}\n";
+    const QByteArray good =
+        "test_respondents:\n"
+        "  - {name: no_garden, answers: {owns: 2}, path: [owns]}\n"
+        "  - {name: garden, answers: {owns: 1, size: 40}, path: [owns, size]}\n";
     const QByteArray bad = "test_respondents:\n"
                            "  - {name: wrong, answers: {owns: 2, size: 3}, path: [owns, size]}\n";
     QCOMPARE(summarize(findingsOf(instrumentYaml(items) + good)), QStringList());
     const Findings f = findingsOf(instrumentYaml(items) + bad);
-    QCOMPARE(summarize(f), QStringList{QStringLiteral("test-respondent-fails  test_respondents[0] -")});
+    QCOMPARE(summarize(f),
+             QStringList{QStringLiteral("test-respondent-fails  test_respondents[0] -")});
     QVERIFY(f.at(0).message.contains(QLatin1String("step 2")));
 }
 
@@ -263,8 +274,8 @@ void TestCheck::routingMistakesFullList() {
 void TestCheck::cleanSamples() {
     // The two demo instruments are meant to be free of errors.
     for (const char* name : {"household-energy.yaml", "commuting.yaml"}) {
-        LoadResult loaded = loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/") +
-                                         QLatin1String(name));
+        LoadResult loaded =
+            loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/") + QLatin1String(name));
         QVERIFY(loaded.ok());
         const CompiledRouting routing(*loaded.instrument);
         QCOMPARE(countFindings(checkInstrument(routing)).errors, 0);

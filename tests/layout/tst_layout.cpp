@@ -392,10 +392,10 @@ void TestLayout::cliExportsSvg() {
         "modules:\n"
         "  - name: garden\n"
         "    items:\n"
-        "      - {name: has_garden, text: Do you have a garden?, type: single,\n"
+        "      - {name: has_garden, text: \"Do you have a garden?\", type: single,\n"
         "         codes: [{code: 1, label: \"Yes\"}, {code: 2, label: \"No\"}],\n"
         "         routing: [{if: \"has_garden = 2\", goto: END}]}\n"
-        "      - {name: garden_size, text: How big is it?, type: integer, range: [1, 9999]}\n");
+        "      - {name: garden_size, text: \"How big is it?\", type: integer, range: [1, 9999]}\n");
     file.close();
     QProcess cli;
     cli.start(QStringLiteral(ROUTEBOOK_BINARY),

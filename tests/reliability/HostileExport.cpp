@@ -198,6 +198,10 @@ QString activeMarkdown(const QByteArray& bytes) {
                                          QRegularExpression::DotMatchesEverythingOption);
     text.remove(fenced);
     text.remove(span);
+    // The dictionary's own link targets (ids built from sanitised names, no
+    // user text) are the one raw tag Markdown output may hold.
+    static const QRegularExpression ownAnchor(u"<a id=\"[A-Za-z0-9_-]+\"></a>"_s);
+    text.remove(ownAnchor);
     static const QRegularExpression rawTag(u"<[A-Za-z!/?]"_s);
     const QRegularExpressionMatch m = rawTag.match(text);
     if (!m.hasMatch())
@@ -225,6 +229,7 @@ QString csvProblem(const QString& file) {
         return u"python3 is needed to check CSV"_s;
     const QString script = uR"(
 import csv, sys
+csv.field_size_limit(sys.maxsize)  # hostile fields are huge on purpose
 with open(sys.argv[1], newline='', encoding='utf-8-sig') as f:
     rows = list(csv.reader(f, strict=True))
 if not rows: sys.exit('no header')
