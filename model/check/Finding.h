@@ -12,7 +12,7 @@ QString severityName(Severity severity); // "error" / "warning"
 
 // One finding of `check` (DESIGN.md "Analysis").
 struct Finding {
-    QString check;   // e.g. "unknown-variable"
+    QString check; // e.g. "unknown-variable"
     Severity severity = Severity::Error;
     QString item;    // item name; empty for module-level and instrument-level findings
     QString module;  // module name (always set when known)

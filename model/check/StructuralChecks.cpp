@@ -24,7 +24,8 @@ struct Place {
 
 class Checker {
 public:
-    explicit Checker(const CompiledRouting& routing) : m_routing(routing), m_index(routing.index()) {}
+    explicit Checker(const CompiledRouting& routing)
+        : m_routing(routing), m_index(routing.index()) {}
 
     Findings run() {
         checkNames();
@@ -141,7 +142,8 @@ void Checker::checkCodeLists() {
         if (!e.item->hasInlineCodes && !e.item->codeListName.isEmpty())
             used.insert(e.item->codeListName.toLower());
     for (const CodeList& list : instrument.codeLists) {
-        Place place{nullptr, nullptr, -1, QStringLiteral("code_lists.%1").arg(list.name), list.name};
+        Place place{nullptr, nullptr, -1, QStringLiteral("code_lists.%1").arg(list.name),
+                    list.name};
         if (list.codes.isEmpty())
             add(place, QStringLiteral("empty-code-list"), Severity::Error,
                 QStringLiteral("code list '%1' has no codes").arg(list.name));
@@ -153,8 +155,12 @@ void Checker::checkCodeLists() {
     }
 }
 
-bool isCoded(ItemType type) { return type == ItemType::Single || type == ItemType::Multi; }
-bool isNumeric(ItemType type) { return type == ItemType::Integer || type == ItemType::Decimal; }
+bool isCoded(ItemType type) {
+    return type == ItemType::Single || type == ItemType::Multi;
+}
+bool isNumeric(ItemType type) {
+    return type == ItemType::Integer || type == ItemType::Decimal;
+}
 
 void Checker::checkItemCodes(const ItemIndex::Entry& e) {
     const Item& item = *e.item;
@@ -170,7 +176,8 @@ void Checker::checkItemCodes(const ItemIndex::Entry& e) {
         if (codes.isEmpty())
             add(itemPlace(e, QStringLiteral("codes")), QStringLiteral("empty-code-list"),
                 Severity::Error,
-                QStringLiteral("%1 item '%2' has no codes").arg(itemTypeName(item.type), item.name));
+                QStringLiteral("%1 item '%2' has no codes")
+                    .arg(itemTypeName(item.type), item.name));
     }
 }
 
@@ -191,7 +198,8 @@ void Checker::checkRange(const ItemIndex::Entry& e) {
     else if (item.type == ItemType::Integer &&
              (std::floor(low.value) != low.value || std::floor(high.value) != high.value))
         add(place, QStringLiteral("bad-range"), Severity::Error,
-            QStringLiteral("range [%1, %2] of an integer item has a bound that is not a whole number")
+            QStringLiteral(
+                "range [%1, %2] of an integer item has a bound that is not a whole number")
                 .arg(low.text, high.text));
 }
 
@@ -210,7 +218,8 @@ void Checker::checkRules(const ItemIndex::Entry& e) {
                 QStringLiteral("goto '%1' names no item, module or END").arg(rule.target));
         else if (target == e.position + 1)
             add(goPlace, QStringLiteral("redundant-goto"), Severity::Warning,
-                QStringLiteral("goto '%1' leads where the questionnaire goes anyway").arg(rule.target));
+                QStringLiteral("goto '%1' leads where the questionnaire goes anyway")
+                    .arg(rule.target));
     }
 }
 
@@ -235,12 +244,14 @@ void Checker::checkModules() {
     for (const Module& module : m_routing.instrument().modules) {
         const int position = modulePosition(module);
         if (module.items.isEmpty())
-            add({nullptr, &module, position, QStringLiteral("items"), {}}, QStringLiteral("empty-module"),
-                Severity::Warning, QStringLiteral("module '%1' has no items").arg(module.name));
+            add({nullptr, &module, position, QStringLiteral("items"), {}},
+                QStringLiteral("empty-module"), Severity::Warning,
+                QStringLiteral("module '%1' has no items").arg(module.name));
         if (module.askIf)
             // A module filter is evaluated at each of its items: items before the module only.
-            checkCondition(*module.askIf, {nullptr, &module, position, QStringLiteral("ask_if"), {}},
-                           position, QStringLiteral("an item of this module or a later one"));
+            checkCondition(*module.askIf,
+                           {nullptr, &module, position, QStringLiteral("ask_if"), {}}, position,
+                           QStringLiteral("an item of this module or a later one"));
     }
 }
 
@@ -346,14 +357,16 @@ void Checker::checkUnknownCodes(const cond::Expr& expr, const Place& place) {
                 report(element.high ? element.low.text + QStringLiteral("..") + element.high->text
                                     : element.low.text);
     } else if (expr.value.isNumber() && !literalMeetsItem(expr, values, nullptr)) {
-        report(expr.kind == K::Compare ? cond::compareOpText(expr.op) + QLatin1Char(' ') +
-                                             expr.value.text
-                                       : expr.value.text);
+        report(expr.kind == K::Compare
+                   ? cond::compareOpText(expr.op) + QLatin1Char(' ') + expr.value.text
+                   : expr.value.text);
     }
 }
 
 } // namespace
 
-Findings structuralFindings(const CompiledRouting& routing) { return Checker(routing).run(); }
+Findings structuralFindings(const CompiledRouting& routing) {
+    return Checker(routing).run();
+}
 
 } // namespace rb

@@ -14,8 +14,7 @@ struct CommandEntry {
 };
 const CommandEntry kCommands[] = {
     {"check", runCheck},   {"gates", runGates},     {"route", runRoute},
-    {"export", runExport}, {"convert", runConvert},
-    {"data-check", runDataCheckCommand},
+    {"export", runExport}, {"convert", runConvert}, {"data-check", runDataCheckCommand},
 };
 } // namespace
 
@@ -30,8 +29,10 @@ QString usage() {
         "                 [--page-size a4|letter]     pdf needs -o OUT\n"
         "       routebook convert IN OUT              YAML <-> .routebook by extension\n"
         "       routebook data-check FILE DATA.csv [--json] [--report R.html]\n"
-        "                 [--analysis-file OUT.csv [--flags]] [--suppress-below N] [--id-column NAME]\n"
-        "                                             classify every cell (exit 0 clean, 1 problems)\n"
+        "                 [--analysis-file OUT.csv [--flags]] [--suppress-below N] [--id-column "
+        "NAME]\n"
+        "                                             classify every cell (exit 0 clean, 1 "
+        "problems)\n"
         "       routebook --help | --version\n"
         "FILE is a .routebook project or a .yaml instrument.\n");
 }

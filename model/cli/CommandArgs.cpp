@@ -4,9 +4,9 @@ namespace rb::cli {
 
 namespace {
 const QStringList kFlags = {QStringLiteral("--json"), QStringLiteral("--flags")};
-const QStringList kOptions = {QStringLiteral("--format"), QStringLiteral("-o"),
-                              QStringLiteral("--answers"), QStringLiteral("--table"),
-                              QStringLiteral("--report"), QStringLiteral("--analysis-file"),
+const QStringList kOptions = {QStringLiteral("--format"),         QStringLiteral("-o"),
+                              QStringLiteral("--answers"),        QStringLiteral("--table"),
+                              QStringLiteral("--report"),         QStringLiteral("--analysis-file"),
                               QStringLiteral("--suppress-below"), QStringLiteral("--id-column"),
                               QStringLiteral("--page-size")};
 } // namespace

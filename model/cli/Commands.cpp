@@ -59,7 +59,9 @@ int writeOutput(const CommandArgs& args, const QByteArray& bytes, QTextStream& o
 void printFindingsText(const QString& file, const Findings& findings, QTextStream& out) {
     for (const Finding& f : findings) {
         out << file << ": " << severityName(f.severity) << " [" << f.check << "] ";
-        const QString where = !f.item.isEmpty() ? f.item : !f.module.isEmpty() ? f.module : f.subject;
+        const QString where = !f.item.isEmpty()     ? f.item
+                              : !f.module.isEmpty() ? f.module
+                                                    : f.subject;
         out << where;
         if (!f.field.isEmpty())
             out << ' ' << f.field;
@@ -83,7 +85,9 @@ std::optional<QHash<QString, AnswerValue>> readAnswers(const QString& path, QTex
     const QJsonDocument doc = QJsonDocument::fromJson(file.readAll(), &parseError);
     if (parseError.error != QJsonParseError::NoError || !doc.isObject()) {
         err << path << ":1:" << parseError.offset + 1 << ": not a JSON object of answers"
-            << (parseError.error != QJsonParseError::NoError ? QStringLiteral(" (%1)").arg(parseError.errorString()) : QString())
+            << (parseError.error != QJsonParseError::NoError
+                    ? QStringLiteral(" (%1)").arg(parseError.errorString())
+                    : QString())
             << '\n';
         return std::nullopt;
     }

@@ -14,8 +14,8 @@ struct CellValue {
         NotPresented, // empty: the item was not presented
         Blank,        // presented but no value recorded (data check only)
         Number,
-        Text,  // text items, dates, and values that are not numbers
-        Codes  // multi items: the chosen codes
+        Text, // text items, dates, and values that are not numbers
+        Codes // multi items: the chosen codes
     };
     State state = State::NotPresented;
     double number = 0;

@@ -49,14 +49,14 @@ struct Expr {
         False
     };
     Kind kind = Kind::True;
-    QString name;   // the item name as written (atoms only)
+    QString name; // the item name as written (atoms only)
     CompareOp op = CompareOp::Eq;
-    Value value;    // Compare, Has
+    Value value;             // Compare, Has
     QList<ListElement> list; // In
     bool negated = false;    // In: `not in`
     QList<ExprPtr> children; // Or, And, Not
-    int column = 0;     // 1-based column where this node starts in the source text
-    int nameColumn = 0; // 1-based column of `name` (atoms)
+    int column = 0;          // 1-based column where this node starts in the source text
+    int nameColumn = 0;      // 1-based column of `name` (atoms)
 
     // Structural equality, ignoring columns; names compare ignoring case.
     bool sameTree(const Expr& other) const;

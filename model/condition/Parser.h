@@ -12,8 +12,8 @@ struct ParseError {
 };
 
 struct ParseResult {
-    ExprPtr expr;                     // set when parsing succeeded
-    std::optional<ParseError> error;  // set when it failed
+    ExprPtr expr;                    // set when parsing succeeded
+    std::optional<ParseError> error; // set when it failed
     bool ok() const { return expr != nullptr; }
 };
 

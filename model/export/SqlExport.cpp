@@ -18,7 +18,6 @@ QString commentText(QString text) {
     return text;
 }
 
-
 using cond::Expr;
 
 QString quoteId(const QString& name) {

@@ -18,11 +18,13 @@ struct TypeName {
     const char* name;
 };
 constexpr TypeName kTypeNames[] = {
-    {ItemType::Single, "single"},   {ItemType::Multi, "multi"}, {ItemType::Integer, "integer"},
-    {ItemType::Decimal, "decimal"}, {ItemType::Text, "text"},   {ItemType::Date, "date"},
+    {ItemType::Single, "single"},      {ItemType::Multi, "multi"}, {ItemType::Integer, "integer"},
+    {ItemType::Decimal, "decimal"},    {ItemType::Text, "text"},   {ItemType::Date, "date"},
     {ItemType::Statement, "statement"}};
 
-QString key(const QString& name) { return name.toLower(); }
+QString key(const QString& name) {
+    return name.toLower();
+}
 } // namespace
 
 QString missingKindName(MissingKind kind) {
@@ -91,7 +93,9 @@ ItemIndex::ItemIndex(const Instrument& instrument) {
     m_byName = first;
 }
 
-int ItemIndex::positionOf(const QString& name) const { return m_byName.value(key(name), -1); }
+int ItemIndex::positionOf(const QString& name) const {
+    return m_byName.value(key(name), -1);
+}
 
 int ItemIndex::modulePosition(const QString& name) const {
     return m_moduleFirst.value(key(name), -1);
@@ -115,9 +119,9 @@ QStringList multiVariableNames(const Instrument& instrument, const Item& item) {
 
 bool isConditionKeyword(const QString& word) {
     static const QStringList keywords = {
-        QStringLiteral("and"),   QStringLiteral("or"),       QStringLiteral("not"),
-        QStringLiteral("in"),    QStringLiteral("has"),      QStringLiteral("asked"),
-        QStringLiteral("answered"), QStringLiteral("true"),  QStringLiteral("false")};
+        QStringLiteral("and"),      QStringLiteral("or"),   QStringLiteral("not"),
+        QStringLiteral("in"),       QStringLiteral("has"),  QStringLiteral("asked"),
+        QStringLiteral("answered"), QStringLiteral("true"), QStringLiteral("false")};
     return keywords.contains(word);
 }
 

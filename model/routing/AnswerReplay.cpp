@@ -60,8 +60,7 @@ AnswerCheck multiAnswer(const QList<Code>& codes, const AnswerValue& answer) {
 AnswerCheck textAnswer(const Item& item, const AnswerValue& answer) {
     if (answer.kind == AnswerValue::Kind::List)
         return {{}, QStringLiteral("expects text")};
-    if (item.type == ItemType::Date &&
-        !QDate::fromString(answer.text, Qt::ISODate).isValid())
+    if (item.type == ItemType::Date && !QDate::fromString(answer.text, Qt::ISODate).isValid())
         return {{}, QStringLiteral("expects a date YYYY-MM-DD")};
     return {cond::CellValue::ofText(answer.text), {}};
 }
@@ -96,7 +95,8 @@ ReplayResult replayAnswers(const CompiledRouting& routing,
         const auto it = answersByLowerName.constFind(item.name.toLower());
         if (it == answersByLowerName.constEnd()) {
             if (result.error.isEmpty())
-                result.error = QStringLiteral("item '%1' is presented but has no answer").arg(item.name);
+                result.error =
+                    QStringLiteral("item '%1' is presented but has no answer").arg(item.name);
             return cond::CellValue::blank();
         }
         AnswerCheck check = cellForAnswer(item, routing.codes(position), *it);

@@ -13,8 +13,8 @@ namespace rb {
 // `answerOf(position)` gives the value a presented item records. The loop
 // guard stops after 4 x (number of items) steps.
 struct RouteResult {
-    QList<int> path;      // presented positions, in order (repeats possible in a loop)
-    bool loop = false;    // true when the guard stopped the route
+    QList<int> path;               // presented positions, in order (repeats possible in a loop)
+    bool loop = false;             // true when the guard stopped the route
     QList<cond::CellValue> values; // per position: what the item holds at the end
 };
 

@@ -17,8 +17,9 @@ FileKind fileKindOf(const QString& path) {
 }
 
 static Diagnostic unknownKind(const QString& path) {
-    return {path, 0, 0,
-            QStringLiteral("unknown file type: expected a .routebook project or a .yaml instrument")};
+    return {
+        path, 0, 0,
+        QStringLiteral("unknown file type: expected a .routebook project or a .yaml instrument")};
 }
 
 LoadResult loadInstrumentFile(const QString& path) {

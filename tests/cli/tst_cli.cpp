@@ -45,7 +45,8 @@ const char* const kGarden =
     "        type: single\n"
     "        codes: yes_no\n"
     "        routing: [{if: \"owns = 2\", goto: closing}]\n"
-    "      - {name: size, text: \"Garden size in square metres?\", type: integer, range: [1, 5000]}\n"
+    "      - {name: size, text: \"Garden size in square metres?\", type: integer, range: [1, "
+    "5000]}\n"
     "      - name: crops\n"
     "        text: What do you grow?\n"
     "        type: multi\n"
@@ -108,14 +109,17 @@ void TestCli::checkCleanIsZero() {
     QCOMPARE(run.exitCode, 0);
     const QJsonObject root = QJsonDocument::fromJson(run.out).object();
     QCOMPARE(root.value(QStringLiteral("findings")).toArray().size(), 0);
-    QCOMPARE(root.value(QStringLiteral("summary")).toObject().value(QStringLiteral("errors")).toInt(-1), 0);
+    QCOMPARE(
+        root.value(QStringLiteral("summary")).toObject().value(QStringLiteral("errors")).toInt(-1),
+        0);
 }
 
 void TestCli::checkErrorsIsOneWithJsonShape() {
     QByteArray broken(kGarden);
     broken.replace("goto: closing", "goto: nowhere");
-    const Run run = routebook({QStringLiteral("check"), write(QStringLiteral("broken.yaml"), broken),
-                               QStringLiteral("--json")});
+    const Run run =
+        routebook({QStringLiteral("check"), write(QStringLiteral("broken.yaml"), broken),
+                   QStringLiteral("--json")});
     QCOMPARE(run.exitCode, 1);
     const QJsonObject root = QJsonDocument::fromJson(run.out).object();
     const QJsonArray findings = root.value(QStringLiteral("findings")).toArray();
@@ -123,10 +127,13 @@ void TestCli::checkErrorsIsOneWithJsonShape() {
     const QJsonObject f = findings.first().toObject();
     for (const char* key : {"id", "check", "severity", "item", "message", "field", "column"})
         QVERIFY2(f.contains(QLatin1String(key)), key);
-    QCOMPARE(f.value(QStringLiteral("id")).toString(), QStringLiteral("unknown-target:owns:routing[0].goto"));
+    QCOMPARE(f.value(QStringLiteral("id")).toString(),
+             QStringLiteral("unknown-target:owns:routing[0].goto"));
     QCOMPARE(f.value(QStringLiteral("severity")).toString(), QStringLiteral("error"));
     QVERIFY(f.value(QStringLiteral("column")).isNull()); // not about a condition
-    QCOMPARE(root.value(QStringLiteral("summary")).toObject().value(QStringLiteral("errors")).toInt(), 1);
+    QCOMPARE(
+        root.value(QStringLiteral("summary")).toObject().value(QStringLiteral("errors")).toInt(),
+        1);
 }
 
 void TestCli::badInputIsTwo_data() {
@@ -135,8 +142,10 @@ void TestCli::badInputIsTwo_data() {
     QTest::newRow("no file") << QStringList{QStringLiteral("check")};
     QTest::newRow("missing file") << QStringList{QStringLiteral("check"), missing};
     QTest::newRow("unknown command") << QStringList{QStringLiteral("frobnicate")};
-    QTest::newRow("unknown option") << QStringList{QStringLiteral("check"), missing, QStringLiteral("--colour")};
-    QTest::newRow("unknown extension") << QStringList{QStringLiteral("check"), QStringLiteral("x.txt")};
+    QTest::newRow("unknown option")
+        << QStringList{QStringLiteral("check"), missing, QStringLiteral("--colour")};
+    QTest::newRow("unknown extension")
+        << QStringList{QStringLiteral("check"), QStringLiteral("x.txt")};
     QTest::newRow("export without format") << QStringList{QStringLiteral("export"), missing};
     QTest::newRow("route without answers") << QStringList{QStringLiteral("route"), missing};
     QTest::newRow("convert one file") << QStringList{QStringLiteral("convert"), missing};
@@ -187,7 +196,8 @@ void TestCli::routeRejectsBadAnswers_data() {
     QTest::addColumn<QByteArray>("answers");
     QTest::addColumn<QByteArray>("message");
     QTest::newRow("missing answer") << QByteArray(R"({"owns": 1})") << QByteArray("size");
-    QTest::newRow("not a code") << QByteArray(R"({"owns": 3})") << QByteArray("not one of its codes");
+    QTest::newRow("not a code") << QByteArray(R"({"owns": 3})")
+                                << QByteArray("not one of its codes");
     QTest::newRow("out of range") << QByteArray(R"({"owns": 1, "size": 0, "crops": [1]})")
                                   << QByteArray("outside the range");
     QTest::newRow("not json") << QByteArray("{owns") << QByteArray("JSON");
@@ -207,9 +217,13 @@ void TestCli::exportYamlIsCanonical() {
     const QString once = m_dir.filePath(QStringLiteral("once.yaml"));
     const QString twice = m_dir.filePath(QStringLiteral("twice.yaml"));
     QCOMPARE(routebook({QStringLiteral("export"), m_garden, QStringLiteral("--format"),
-                        QStringLiteral("yaml"), QStringLiteral("-o"), once}).exitCode, 0);
+                        QStringLiteral("yaml"), QStringLiteral("-o"), once})
+                 .exitCode,
+             0);
     QCOMPARE(routebook({QStringLiteral("export"), once, QStringLiteral("--format"),
-                        QStringLiteral("yaml"), QStringLiteral("-o"), twice}).exitCode, 0);
+                        QStringLiteral("yaml"), QStringLiteral("-o"), twice})
+                 .exitCode,
+             0);
     QFile a(once), b(twice);
     QVERIFY(a.open(QIODevice::ReadOnly) && b.open(QIODevice::ReadOnly));
     const QByteArray first = a.readAll();
@@ -218,8 +232,8 @@ void TestCli::exportYamlIsCanonical() {
 }
 
 void TestCli::exportDotHasEveryItem() {
-    const Run run = routebook({QStringLiteral("export"), m_garden, QStringLiteral("--format"),
-                               QStringLiteral("dot")});
+    const Run run = routebook(
+        {QStringLiteral("export"), m_garden, QStringLiteral("--format"), QStringLiteral("dot")});
     QCOMPARE(run.exitCode, 0);
     QVERIFY(run.out.startsWith("digraph"));
     // The rule edge carries its condition, quotes escaped.
@@ -235,7 +249,9 @@ void TestCli::convertRoundTrip() {
     QCOMPARE(routebook({QStringLiteral("convert"), m_garden, project}).exitCode, 0);
     QCOMPARE(routebook({QStringLiteral("convert"), project, back}).exitCode, 0);
     QCOMPARE(routebook({QStringLiteral("export"), m_garden, QStringLiteral("--format"),
-                        QStringLiteral("yaml"), QStringLiteral("-o"), canonical}).exitCode, 0);
+                        QStringLiteral("yaml"), QStringLiteral("-o"), canonical})
+                 .exitCode,
+             0);
     QFile a(back), b(canonical);
     QVERIFY(a.open(QIODevice::ReadOnly) && b.open(QIODevice::ReadOnly));
     QCOMPARE(a.readAll(), b.readAll());
@@ -245,7 +261,9 @@ void TestCli::nothingWrittenOnFailure() {
     const QString bad = write(QStringLiteral("bad2.yaml"), "routebook: [\n");
     const QString out = m_dir.filePath(QStringLiteral("never.yaml"));
     QCOMPARE(routebook({QStringLiteral("export"), bad, QStringLiteral("--format"),
-                        QStringLiteral("yaml"), QStringLiteral("-o"), out}).exitCode, 2);
+                        QStringLiteral("yaml"), QStringLiteral("-o"), out})
+                 .exitCode,
+             2);
     QVERIFY(!QFile::exists(out));
     QCOMPARE(routebook({QStringLiteral("convert"), bad, out}).exitCode, 2);
     QVERIFY(!QFile::exists(out));

@@ -19,7 +19,9 @@ std::optional<Instrument> load(const QByteArray& yaml) {
 }
 
 // "a b c" -> {"a", "b", "c"}
-QStringList words(const char* text) { return QString::fromLatin1(text).split(QLatin1Char(' ')); }
+QStringList words(const char* text) {
+    return QString::fromLatin1(text).split(QLatin1Char(' '));
+}
 
 QStringList names(const CompiledRouting& routing, const QList<int>& positions) {
     QStringList out;
@@ -32,7 +34,8 @@ QStringList names(const CompiledRouting& routing, const QList<int>& positions) {
 QHash<QString, AnswerValue> numbers(std::initializer_list<std::pair<const char*, int>> values) {
     QHash<QString, AnswerValue> answers;
     for (const auto& [name, value] : values)
-        answers.insert(QString::fromLatin1(name), {AnswerValue::Kind::Number, QString::number(value), {}});
+        answers.insert(QString::fromLatin1(name),
+                       {AnswerValue::Kind::Number, QString::number(value), {}});
     return answers;
 }
 
@@ -48,8 +51,8 @@ const char* const kRouting =
     "      - name: a\n        text: A?\n        type: integer\n"
     "        routing:\n"
     "          - {if: \"a = 1\", goto: second}\n"
-    "          - {if: \"a = 2\", goto: nowhere}\n"      // unknown target: never fires
-    "          - {if: \"a = \", goto: END}\n"           // broken condition: never fires
+    "          - {if: \"a = 2\", goto: nowhere}\n" // unknown target: never fires
+    "          - {if: \"a = \", goto: END}\n"      // broken condition: never fires
     "      - {name: b, text: \"B?\", type: integer, ask_if: \"a <> 3\"}\n"
     "  - name: second\n"
     "    ask_if: \"a < 5\"\n"
@@ -96,7 +99,8 @@ void TestSimulator::paths() {
     const std::optional<Instrument> instrument = load(kRouting);
     QVERIFY(instrument);
     const CompiledRouting routing(*instrument);
-    const ReplayResult r = replayAnswers(routing, numbers({{"a", a}, {"b", 5}, {"c", c}, {"d", 1}}));
+    const ReplayResult r =
+        replayAnswers(routing, numbers({{"a", a}, {"b", 5}, {"c", c}, {"d", 1}}));
     QCOMPARE(r.error, QString());
     QVERIFY(!r.route.loop);
     QCOMPARE(names(routing, r.route.path), path);
@@ -105,10 +109,10 @@ void TestSimulator::paths() {
 void TestSimulator::loopGuardStops() {
     // b always jumps back to a: the route never ends; the guard stops it after
     // 4 x 2 = 8 steps, so 8 items are presented: a b a b a b a b.
-    const std::optional<Instrument> instrument = load(
-        "routebook: 1\ninstrument: {title: Loop}\nmodules:\n  - name: m\n    items:\n"
-        "      - {name: a, text: \"A?\", type: integer}\n"
-        "      - {name: b, text: \"B?\", type: integer, routing: [{goto: a}]}\n");
+    const std::optional<Instrument> instrument =
+        load("routebook: 1\ninstrument: {title: Loop}\nmodules:\n  - name: m\n    items:\n"
+             "      - {name: a, text: \"A?\", type: integer}\n"
+             "      - {name: b, text: \"B?\", type: integer, routing: [{goto: a}]}\n");
     QVERIFY(instrument);
     const CompiledRouting routing(*instrument);
     const ReplayResult r = replayAnswers(routing, numbers({{"a", 1}, {"b", 1}}));
@@ -122,7 +126,8 @@ void TestSimulator::filteredItemIsEmpty() {
     const std::optional<Instrument> instrument = load(kRouting);
     QVERIFY(instrument);
     const CompiledRouting routing(*instrument);
-    const ReplayResult r = replayAnswers(routing, numbers({{"a", 3}, {"b", 5}, {"c", 0}, {"d", 1}}));
+    const ReplayResult r =
+        replayAnswers(routing, numbers({{"a", 3}, {"b", 5}, {"c", 0}, {"d", 1}}));
     QCOMPARE(r.route.values.at(1).state, cond::CellValue::State::NotPresented);
     QCOMPARE(r.route.values.at(0).number, 3.0);
 }
@@ -130,7 +135,8 @@ void TestSimulator::filteredItemIsEmpty() {
 void TestSimulator::sampleTestRespondents_data() {
     QTest::addColumn<QString>("file");
     const QDir samples(QStringLiteral(ROUTEBOOK_SAMPLES_DIR));
-    for (const QString& name : {QStringLiteral("household-energy.yaml"), QStringLiteral("commuting.yaml")})
+    for (const QString& name :
+         {QStringLiteral("household-energy.yaml"), QStringLiteral("commuting.yaml")})
         QTest::newRow(qPrintable(name)) << samples.filePath(name);
 }
 
