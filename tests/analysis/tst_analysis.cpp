@@ -274,7 +274,7 @@ private slots:
 
     void petricksMethod() {
         // Petrick's method, f(A,B,C) = m(0,1,2,5,6,7): A'B' + BC' + AC or
-        // A'C' + B'C + AB (Wikipedia "Petrick's method"; U. Idaho ECE 349 lecture 10;
+        // A'C' + B'C + AB (Wikipedia "Petrick's method"; U. Idaho ECE 349 course notes no. 10;
         // worked-examples 1b).
         int literals = 0;
         const std::set<QString> got = minimiseTable(u"ABC"_s, {0, 1, 2, 5, 6, 7}, {}, &literals);

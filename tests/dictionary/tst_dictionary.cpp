@@ -409,7 +409,12 @@ void TestDictionary::gardenDdiContent() {
     QVERIFY(xml.contains("<ivuInstr>Count raised beds, borders and planters.</ivuInstr>"));
     for (const QString& ref : ddi.references)
         QVERIFY2(ddi.ids.contains(ref), qPrintable(ref));
-    QVERIFY(!xml.contains("SPSS") && !xml.contains("SAS\"") && !xml.contains("Stata"));
+    // varFormat/@schema names no statistical package: only ISO (dates) or "other".
+    static const QRegularExpression schema(u"<varFormat[^>]*schema=\"([^\"]*)\""_s);
+    for (auto it = schema.globalMatch(QString::fromUtf8(xml)); it.hasNext();) {
+        const QString value = it.next().captured(1);
+        QVERIFY2(value == u"ISO"_s || value == u"other"_s, qPrintable(value));
+    }
 }
 
 void TestDictionary::generationTimeFromEnvironment() {
