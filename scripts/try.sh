@@ -16,3 +16,6 @@ if "$bin" gates "$sample" >/dev/null 2>&1; then
   echo "== routebook gates $sample"
   "$bin" gates "$sample"
 fi
+out="${TMPDIR:-/tmp}/household-energy-dictionary.html"
+"$bin" export "$sample" --format html -o "$out"
+echo "== data dictionary written to $out"
