@@ -58,9 +58,12 @@ void saveSmall(const QString& file) {
 }
 
 // One hostile project file: how to make it and the message it must give.
+// Either `make` writes the file, or (make == nullptr) the small project is
+// saved and `sql` is run on it raw.
 struct ProjectCase {
     const char* name;
     void (*make)(const QString& file);
+    const char* sql;
     const char* message; // regular expression the error must match
 };
 
@@ -68,27 +71,27 @@ struct ProjectCase {
 // a file is judged first by its bytes (empty / not SQLite), then by its marks
 // (foreign), then by SQLite's own structure check and foreign-key check.
 const ProjectCase kProjectCases[] = {
-    {"empty file", [](const QString& f) { writeFile(f, {}); }, "the file is empty"},
-    {"random bytes", [](const QString& f) { writeFile(f, pseudoRandomBytes(65536, 7)); },
+    {"empty file", [](const QString& f) { writeFile(f, {}); }, nullptr, "the file is empty"},
+    {"random bytes", [](const QString& f) { writeFile(f, pseudoRandomBytes(65536, 7)); }, nullptr,
      "not a Routebook project \\(not an SQLite database\\)"},
     {"sqlite header then random bytes",
      [](const QString& f) {
          writeFile(f, QByteArray("SQLite format 3\0", 16) + pseudoRandomBytes(8192, 11));
      },
-     "not a Routebook project|damaged Routebook project"},
+     nullptr, "not a Routebook project|damaged Routebook project"},
     {"truncated to half",
      [](const QString& f) {
          saveSmall(f);
          const QByteArray bytes = readFile(f);
          writeFile(f, bytes.left(bytes.size() / 2));
      },
-     "not a Routebook project|damaged Routebook project"},
+     nullptr, "not a Routebook project|damaged Routebook project"},
     {"truncated to 600 bytes",
      [](const QString& f) {
          saveSmall(f);
          writeFile(f, readFile(f).left(600));
      },
-     "not a Routebook project|damaged Routebook project"},
+     nullptr, "not a Routebook project|damaged Routebook project"},
     {"pages overwritten",
      [](const QString& f) {
          saveSmall(f);
@@ -98,63 +101,44 @@ const ProjectCase kProjectCases[] = {
          bytes.replace(4096, noise.size(), noise);
          writeFile(f, bytes);
      },
-     "damaged Routebook project|not a Routebook project"},
+     nullptr, "damaged Routebook project|not a Routebook project"},
     {"sqlite file of another program",
      [](const QString& f) {
          QCOMPARE(rawExec(f, "CREATE TABLE recipe (name TEXT, minutes INTEGER);"
                              "INSERT INTO recipe VALUES ('nettle soup', 40);"),
                   QString());
      },
-     "is an SQLite database but not a Routebook project"},
-    {"dangling code list",
-     [](const QString& f) {
-         saveSmall(f);
-         QCOMPARE(rawExec(f, "DELETE FROM code_list"), QString());
-     },
+     nullptr, "is an SQLite database but not a Routebook project"},
+    {"dangling code list", nullptr, "DELETE FROM code_list",
      "damaged Routebook project.*code_list"},
-    {"rules of a deleted item",
-     [](const QString& f) {
-         saveSmall(f);
-         // m0_q7 holds a rule (index 7), so its rule row is left pointing nowhere.
-         QCOMPARE(rawExec(f, "DELETE FROM item WHERE name = 'm0_q7'"), QString());
-     },
+    // m0_q7 holds a rule (index 7), so its rule row is left pointing nowhere.
+    {"rules of a deleted item", nullptr, "DELETE FROM item WHERE name = 'm0_q7'",
      "damaged Routebook project.*item"},
-    {"item of a deleted module",
-     [](const QString& f) {
-         saveSmall(f);
-         QCOMPARE(rawExec(f, "DELETE FROM module WHERE ord = 0"), QString());
-     },
+    {"item of a deleted module", nullptr, "DELETE FROM module WHERE ord = 0",
      "damaged Routebook project.*module"},
-    {"unknown item type",
-     [](const QString& f) {
-         saveSmall(f);
-         QCOMPARE(rawExec(f, "UPDATE item SET type = 'hovercraft' WHERE name = 'm0_q0'"),
-                  QString());
-     },
+    {"unknown item type", nullptr, "UPDATE item SET type = 'hovercraft' WHERE name = 'm0_q0'",
      "damaged Routebook project.*hovercraft"},
-    {"text in an integer column",
-     [](const QString& f) {
-         saveSmall(f);
-         QCOMPARE(rawExec(f, "UPDATE code SET code = 'seven' WHERE ord = 0"), QString());
-     },
+    {"text in an integer column", nullptr, "UPDATE code SET code = 'seven' WHERE ord = 0",
      "damaged Routebook project.*code"},
-    {"two instrument rows",
-     [](const QString& f) {
-         saveSmall(f);
-         QCOMPARE(rawExec(f, "DROP TABLE instrument; CREATE TABLE instrument (id INTEGER, "
-                             "title TEXT, version TEXT, language TEXT);"
-                             "INSERT INTO instrument VALUES (1,'a','1','en'), (1,'b','1','en');"),
-                  QString());
-     },
+    {"two instrument rows", nullptr,
+     "DROP TABLE instrument; CREATE TABLE instrument (id INTEGER, "
+     "title TEXT, version TEXT, language TEXT);"
+     "INSERT INTO instrument VALUES (1,'a','1','en'), (1,'b','1','en');",
      "damaged Routebook project"},
-    {"newer schema version",
-     [](const QString& f) {
-         saveSmall(f);
-         QCOMPARE(rawExec(f, "UPDATE routebook_schema SET version = 99"), QString());
-     },
+    {"newer schema version", nullptr, "UPDATE routebook_schema SET version = 99",
      "newer Routebook \\(schema version 99"},
-    {"a folder", [](const QString& f) { QVERIFY(QDir().mkpath(f)); }, "is not a regular file"},
+    {"a folder", [](const QString& f) { QVERIFY(QDir().mkpath(f)); }, nullptr,
+     "is not a regular file"},
 };
+
+void makeCase(const ProjectCase& c, const QString& file) {
+    if (c.make) {
+        c.make(file);
+        return;
+    }
+    saveSmall(file);
+    QCOMPARE(rawExec(file, c.sql), QString());
+}
 
 void addProjectRows() {
     QTest::addColumn<int>("index");
@@ -191,7 +175,7 @@ void TestHostileFiles::projectFilesInProcess() {
     QFETCH(int, index);
     const ProjectCase& c = kProjectCases[index];
     const QString file = freshFile(m_dir, c.name);
-    c.make(file);
+    makeCase(c, file);
     if (QTest::currentTestFailed())
         return;
     const rb::LoadResult loaded = rb::loadProjectFile(file);
@@ -213,7 +197,7 @@ void TestHostileFiles::hostileFilesInCli() {
     QFETCH(int, index);
     const ProjectCase& c = kProjectCases[index];
     const QString file = freshFile(m_dir, c.name);
-    c.make(file);
+    makeCase(c, file);
     if (QTest::currentTestFailed())
         return;
     const QRegularExpression expected(QString::fromLatin1(c.message));
@@ -383,7 +367,7 @@ void TestHostileFiles::hugeYamlFile() {
 void TestHostileFiles::loadingHostileFileWritesNothing() {
     for (const ProjectCase& c : kProjectCases) {
         const QString file = freshFile(m_dir, c.name);
-        c.make(file);
+        makeCase(c, file);
         if (QFileInfo(file).isDir())
             continue;
         const QByteArray before = readFile(file);
