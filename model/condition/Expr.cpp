@@ -28,9 +28,7 @@ QString compareOpText(CompareOp op) {
     return {};
 }
 
-namespace {
-
-bool isAtom(Expr::Kind kind) {
+bool Expr::isAtom() const {
     switch (kind) {
     case Expr::Kind::Compare:
     case Expr::Kind::In:
@@ -42,6 +40,8 @@ bool isAtom(Expr::Kind kind) {
         return false;
     }
 }
+
+namespace {
 
 bool sameAtom(const Expr& a, const Expr& b) {
     if (a.name.compare(b.name, Qt::CaseInsensitive) != 0)
@@ -63,7 +63,7 @@ bool sameAtom(const Expr& a, const Expr& b) {
 bool Expr::sameTree(const Expr& other) const {
     if (kind != other.kind)
         return false;
-    if (isAtom(kind))
+    if (isAtom())
         return sameAtom(*this, other);
     if (children.size() != other.children.size())
         return false;

@@ -60,6 +60,8 @@ struct Expr {
 
     // Structural equality, ignoring columns; names compare ignoring case.
     bool sameTree(const Expr& other) const;
+    // An atom reads one item (compare, in, has, asked, answered).
+    bool isAtom() const;
 };
 
 } // namespace rb::cond

@@ -22,25 +22,12 @@ bool isIsoDate(const QString& text) {
     return shape.match(text).hasMatch() && QDate::fromString(text, Qt::ISODate).isValid();
 }
 
-bool isAtom(const Expr& e) {
-    switch (e.kind) {
-    case Expr::Kind::Compare:
-    case Expr::Kind::In:
-    case Expr::Kind::Has:
-    case Expr::Kind::Asked:
-    case Expr::Kind::Answered:
-        return true;
-    default:
-        return false;
-    }
-}
-
 class Checker {
 public:
     explicit Checker(const ItemIndex& index) : m_index(index) {}
 
     void walk(const Expr& e) {
-        if (isAtom(e))
+        if (e.isAtom())
             checkAtom(e);
         for (const ExprPtr& child : e.children)
             walk(*child);
@@ -140,7 +127,7 @@ private:
 };
 
 void collectNames(const Expr& e, QList<NameUse>& out) {
-    if (isAtom(e))
+    if (e.isAtom())
         out.append({e.name, e.nameColumn});
     for (const ExprPtr& child : e.children)
         collectNames(*child, out);

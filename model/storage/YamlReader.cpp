@@ -93,6 +93,18 @@ private:
 
     // True when `node` is a map (an empty value counts as an empty map);
     // reports a wrong type and every key not in `allowed`.
+    // A map entry of a list (code, module, item, rule, respondent): false, with
+    // `shape` said, when it is not a map; otherwise its keys are checked.
+    bool openMap(const Node& node, const QString& shape, const QString& where,
+                 const QStringList& allowed) {
+        if (!node.isMap()) {
+            error(node, u"%1, not %2"_s.arg(shape, describeKind(node)));
+            return false;
+        }
+        checkKeys(node, where, allowed);
+        return true;
+    }
+
     bool checkKeys(const Node& node, const QString& where, const QStringList& allowed) {
         if (node.isNull())
             return true;
@@ -192,12 +204,9 @@ private:
 
     Code readCode(const Node& node) {
         Code code;
-        if (!node.isMap()) {
-            error(node,
-                  u"a code must be a map {code: N, label: TEXT}, not %1"_s.arg(describeKind(node)));
+        if (!openMap(node, u"a code must be a map {code: N, label: TEXT}"_s, u"in code"_s,
+                     kCodeKeys))
             return code;
-        }
-        checkKeys(node, u"in code"_s, kCodeKeys);
         if (const Node* value = required(node, "code", u"in code"_s))
             code.code = integer(*value, u"code"_s);
         if (const Node* label = required(node, "label", u"in code"_s))
@@ -234,12 +243,9 @@ private:
 
     Module readModule(const Node& node) {
         Module module;
-        if (!node.isMap()) {
-            error(node, u"a module must be a map with a name and items, not %1"_s.arg(
-                            describeKind(node)));
+        if (!openMap(node, u"a module must be a map with a name and items"_s, u"in module"_s,
+                     kModuleKeys))
             return module;
-        }
-        checkKeys(node, u"in module"_s, kModuleKeys);
         if (const Node* name = required(node, "name", u"in module"_s))
             module.name = text(*name, u"name"_s);
         module.title = optionalText(node, "title");
@@ -252,12 +258,9 @@ private:
 
     Item readItem(const Node& node) {
         Item item;
-        if (!node.isMap()) {
-            error(node, u"an item must be a map with a name and a type, not %1"_s.arg(
-                            describeKind(node)));
+        if (!openMap(node, u"an item must be a map with a name and a type"_s, u"in item"_s,
+                     kItemKeys))
             return item;
-        }
-        checkKeys(node, u"in item"_s, kItemKeys);
         if (const Node* name = required(node, "name", u"in item"_s))
             item.name = text(*name, u"name"_s);
         item.label = optionalText(node, "label");
@@ -340,12 +343,9 @@ private:
 
     Rule readRule(const Node& node) {
         Rule rule;
-        if (!node.isMap()) {
-            error(node, u"a routing rule must be a map {if: CONDITION, goto: TARGET}, not %1"_s.arg(
-                            describeKind(node)));
+        if (!openMap(node, u"a routing rule must be a map {if: CONDITION, goto: TARGET}"_s,
+                     u"in routing rule"_s, kRuleKeys))
             return rule;
-        }
-        checkKeys(node, u"in routing rule"_s, kRuleKeys);
         rule.condition = condition(node, "if");
         if (const Node* target = required(node, "goto", u"in routing rule"_s))
             rule.target = text(*target, u"goto"_s);
@@ -366,12 +366,9 @@ private:
 
     TestRespondent readRespondent(const Node& node) {
         TestRespondent respondent;
-        if (!node.isMap()) {
-            error(node, u"a test respondent must be a map {name, answers, path}, not %1"_s.arg(
-                            describeKind(node)));
+        if (!openMap(node, u"a test respondent must be a map {name, answers, path}"_s,
+                     u"in test respondent"_s, kRespondentKeys))
             return respondent;
-        }
-        checkKeys(node, u"in test respondent"_s, kRespondentKeys);
         if (const Node* name = required(node, "name", u"in test respondent"_s))
             respondent.name = text(*name, u"name"_s);
         if (const Node* answers = node.find("answers"_L1))
