@@ -1,0 +1,140 @@
+#pragma once
+
+#include "HeaderMapping.h"
+#include "RecordClassification.h"
+
+#include <QHash>
+
+#include <cstdint>
+#include <vector>
+
+namespace rb {
+
+// The data check's per-record work compiled into flat tables, built once per
+// run: a cell decoder per item (code lookups by array, numbers parsed from the
+// bytes, no QString per cell) and the routing's conditions as an array of nodes
+// over per-position value slots. classify() runs the reference route of
+// DESIGN.md and the classification of RecordChecker without allocating once the
+// scratch has grown; tst_datacheck proves both agree on random instruments and
+// records. Thread-safe: one Scratch per thread, the program is read-only.
+class RecordProgram {
+public:
+    RecordProgram(const CompiledRouting& routing, const HeaderMapping& mapping);
+
+    // A decoded cell: what conditions read and how the cell is classed.
+    struct Cell {
+        cond::CellValue::State state = cond::CellValue::State::Blank;
+        CellClass presentedClass = CellClass::Blank; // when the item is presented
+        bool skipIsLegitimate = true;                // when it is not
+        double number = 0;
+        QByteArrayView text;
+        int codesFrom = 0, codesCount = 0; // counted codes in Scratch::codes
+    };
+    // Per-thread working memory, reused for every record.
+    struct Scratch {
+        std::vector<Cell> cells;
+        std::vector<qint64> codes;  // counted codes of all cells
+        std::vector<int> codeSlots; // their frequency slot (-1: not a listed code)
+        std::vector<uint8_t> live;  // the route's current value is the cell (else not presented)
+        std::vector<uint8_t> presented, unknownSkip, implied;
+        std::vector<CellClass> classes;
+        std::vector<int> path;
+        std::vector<uint32_t> seen;
+        uint32_t stamp = 0;
+        bool loop = false, anyValue = false, anyViolation = false, anyInvalid = false;
+        int breakOffStart = -1;
+    };
+
+    void prepare(Scratch& s) const;
+    void classify(const std::vector<QByteArrayView>& fields, Scratch& s) const;
+    RecordClassification toClassification(const Scratch& s) const; // for tests
+
+    int itemCount() const { return int(m_items.size()); }
+    bool hasVariable(int p) const { return m_items[size_t(p)].resultIndex >= 0; }
+    int resultIndex(int p) const { return m_items[size_t(p)].resultIndex; }
+    // First frequency slot of the item (its listed codes follow) and the total.
+    int frequencyBase(int p) const { return m_items[size_t(p)].frequencyBase; }
+    int frequencySlots() const { return m_frequencySlots; }
+    int variables() const { return m_variables; }
+
+private:
+    // Codes of one item by value: an array over [low, low + size) when the codes
+    // are close together, a hash otherwise.
+    struct CodeTable {
+        struct Entry {
+            MissingKind kind = MissingKind::None; // the last listing wins (as in CellInterpreter)
+            bool firstIsMissing = false;          // the first listing (as CompiledRouting)
+            int slot = -1;                        // frequency slot, -1: not a code
+        };
+        qint64 low = 0;
+        std::vector<Entry> dense;
+        QHash<qint64, Entry> sparse;
+        const Entry* find(qint64 code) const;
+        void add(qint64 code, MissingKind kind, int slot);
+    };
+    struct Literal {
+        bool isNumber = true;
+        double number = 0;
+        QString text;
+        QByteArray ascii; // the text when it is plain ASCII (compared as bytes)
+        bool isAscii = false;
+    };
+    struct Node {
+        cond::Expr::Kind kind = cond::Expr::Kind::True;
+        cond::CompareOp op = cond::CompareOp::Eq;
+        bool negated = false;
+        int position = -1;        // atoms: the item read, -1 unknown (not presented)
+        int first = 0, count = 0; // children in m_children, or list elements in m_elements
+        Literal value;
+    };
+    struct Element {
+        Literal low, high;
+        bool hasHigh = false;
+    };
+    struct Rule {
+        int condition = -1; // node, -1: always fires
+        int target = 0;
+    };
+    struct ItemProgram {
+        ItemType type = ItemType::Statement;
+        int resultIndex = -1;
+        int column = -1;
+        std::vector<int> multiColumns;
+        std::vector<qint64> multiCodes; // code of each multi column
+        CodeTable codes;
+        bool hasRange = false;
+        double min = 0, max = 0;
+        std::vector<int> filters; // nodes
+        std::vector<Rule> rules;  // usable rules only, in order
+        std::vector<int> gates;
+        bool hasImplied = false;
+        int impliedIf = -1; // node, -1: whenever skipped
+        int frequencyBase = 0;
+    };
+
+    int compile(const cond::Expr& expr, const CompiledRouting& routing);
+    static Literal literal(const cond::Value& v);
+    void decode(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& cell,
+                Scratch& s) const;
+    void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out, Scratch& s) const;
+    void decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& out,
+                     Scratch& s) const;
+    bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
+    void route(Scratch& s) const;
+    void classifyCells(Scratch& s) const;
+    void findBreakOff(Scratch& s) const;
+    bool evaluate(int node, const Scratch& s) const;
+    bool compare(const Cell* cell, cond::CompareOp op, const Literal& v) const;
+    bool answered(const Cell* cell, int position, const Scratch& s) const;
+    const Cell* valueAt(int position, const Scratch& s) const;
+
+    std::vector<ItemProgram> m_items;
+    std::vector<Node> m_nodes;
+    std::vector<int> m_children;
+    std::vector<Element> m_elements;
+    QByteArray m_skipCode;
+    int m_frequencySlots = 0;
+    int m_variables = 0;
+};
+
+} // namespace rb
