@@ -6,28 +6,6 @@ namespace rb {
 
 namespace {
 
-int counterOf(CellClass c) {
-    switch (c) {
-    case CellClass::Answered:
-        return ChunkTally::Answered;
-    case CellClass::Blank:
-        return ChunkTally::Blank;
-    case CellClass::DontKnow:
-        return ChunkTally::DontKnow;
-    case CellClass::Refused:
-        return ChunkTally::Refused;
-    case CellClass::NotApplicable:
-        return ChunkTally::NotApplicable;
-    case CellClass::Invalid:
-        return ChunkTally::Invalid;
-    case CellClass::LegitimateSkip:
-        return ChunkTally::LegitimateSkip;
-    case CellClass::RoutingViolation:
-        return ChunkTally::Violation;
-    }
-    return ChunkTally::Answered;
-}
-
 QByteArray flagOf(CellClass c, bool implied) {
     switch (c) {
     case CellClass::Answered:
@@ -68,6 +46,7 @@ void ChunkChecker::run(const char* begin, const char* end, bool truncated, Chunk
         tally.error = ChunkTally::Error{0, 1, CsvRange::guardMessage(m_options.maxRecordBytes)};
         return;
     }
+    const RecordProgram::Tally counts{tally.counters.data(), tally.frequencies.data()};
     CsvRange range(begin, end, m_options.maxRecordBytes);
     qint64 record = 0;
     CsvRange::Status status;
@@ -79,7 +58,7 @@ void ChunkChecker::run(const char* begin, const char* end, bool truncated, Chunk
                 ChunkTally::Error{range.recordLine(), 1, {}, record, qint64(fields.size())};
             return;
         }
-        m_program.classify(fields, m_scratch);
+        m_program.classify(fields, m_scratch, &counts);
         count(record, range.recordLine(), fields, tally);
         if (analysis) {
             writeRow(fields);
@@ -109,37 +88,22 @@ void ChunkChecker::note(ChunkTally::Problems& problems, qint64 record,
 void ChunkChecker::count(qint64 record, qint64 line, const std::vector<QByteArrayView>& fields,
                          ChunkTally& tally) const {
     const RecordProgram::Scratch& s = m_scratch;
-    for (int p = 0; p < m_program.itemCount(); ++p) {
-        const int index = m_program.resultIndex(p);
-        if (index < 0)
-            continue;
-        qint64* counters = tally.counters.data() + size_t(index) * ChunkTally::kCounters;
-        const CellClass c = s.classes[size_t(p)];
-        ++counters[counterOf(c)];
-        if (s.presented[size_t(p)]) {
-            ++counters[ChunkTally::Presented];
-            const RecordProgram::Cell& cell = s.cells[size_t(p)];
-            for (int k = 0; k < cell.codesCount; ++k)
-                ++tally.frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
-            if (c == CellClass::Invalid &&
-                qsizetype(tally.invalidCells.size()) < m_options.invalidCellsKept) {
+    if (s.anyInvalid) // the first few invalid cells, for the messages
+        for (int p = 0; p < m_program.itemCount() &&
+                        qsizetype(tally.invalidCells.size()) < m_options.invalidCellsKept;
+             ++p)
+            if (s.presented[size_t(p)] && m_program.hasVariable(p) &&
+                s.classes[size_t(p)] == CellClass::Invalid) {
                 const int column = m_mapping.column[size_t(p)];
                 tally.invalidCells.push_back(
                     {record, line, p, column,
                      column >= 0 ? QString::fromUtf8(fields[size_t(column)]) : QString()});
             }
-            continue;
-        }
-        counters[ChunkTally::SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
-        counters[ChunkTally::Implied] += s.implied[size_t(p)];
-    }
     auto& problems = tally.problems;
     if (!s.anyValue) {
         note(problems[ChunkTally::EmptyRecords], record, fields);
     } else if (s.breakOffStart >= 0) {
         note(problems[ChunkTally::BreakOffs], record, fields);
-        ++tally.counters[size_t(m_program.resultIndex(s.breakOffStart)) * ChunkTally::kCounters +
-                         ChunkTally::BreakOffStarts];
     }
     if (s.anyViolation)
         note(problems[ChunkTally::Violations], record, fields);

@@ -11,20 +11,18 @@ namespace rb {
 // line 0); DataCheck merges the blocks in file order, adding the records and
 // lines of the blocks before, so the result is the same for any split.
 struct ChunkTally {
+    // Per variable: RecordProgram's counters (one per CellClass, then the rest).
     enum Counter {
-        Presented,
-        Answered,
-        Blank,
-        DontKnow,
-        Refused,
-        NotApplicable,
-        Invalid,
-        LegitimateSkip,
-        Violation,
-        SkipAfterMissingGate,
-        BreakOffStarts,
-        Implied,
-        kCounters
+        Answered = int(CellClass::Answered),
+        Blank = int(CellClass::Blank),
+        Invalid = int(CellClass::Invalid),
+        LegitimateSkip = int(CellClass::LegitimateSkip),
+        Violation = int(CellClass::RoutingViolation),
+        Presented = RecordProgram::Presented,
+        SkipAfterMissingGate = RecordProgram::SkipAfterMissingGate,
+        BreakOffStarts = RecordProgram::BreakOffStarts,
+        Implied = RecordProgram::Implied,
+        kCounters = RecordProgram::kCounters
     };
     enum Problem { Violations, InvalidRecords, BreakOffs, EmptyRecords, Loops, kProblems };
     struct Problems {

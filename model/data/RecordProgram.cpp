@@ -11,6 +11,7 @@ using Kind = cond::Expr::Kind;
 namespace {
 
 constexpr qint64 kDenseCodeSpan = 4096;
+constexpr int kSmallNumbers = 1000; // cells of 1 to 3 digits
 
 CellClass classOfMissing(MissingKind kind) {
     switch (kind) {
@@ -38,11 +39,11 @@ bool isAsciiSpace(char c) {
     return c == ' ' || (c >= '\t' && c <= '\r');
 }
 
-int threeWay(double a, double b) {
+[[gnu::always_inline]] inline int threeWay(double a, double b) {
     return a < b ? -1 : (a > b ? 1 : 0);
 }
 
-bool holds(cond::CompareOp op, int c) {
+[[gnu::always_inline]] inline bool holds(cond::CompareOp op, int c) {
     switch (op) {
     case cond::CompareOp::Eq:
         return c == 0;
@@ -95,6 +96,9 @@ void RecordProgram::CodeTable::add(qint64 code, MissingKind kind, int slot) {
 
 RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping& mapping)
     : m_skipCode(routing.instrument().settings.legitimateSkipCode.toUtf8()) {
+    m_skipCodeIsDigits = !m_skipCode.isEmpty();
+    for (char c : m_skipCode)
+        m_skipCodeIsDigits &= c >= '0' && c <= '9';
     const int count = routing.itemCount();
     m_items.resize(size_t(count));
     for (int p = 0; p < count; ++p) {
@@ -150,7 +154,60 @@ RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping
                 t.impliedIf = compile(*e, routing);
             }
         }
+        buildSmallTable(t);
     }
+}
+
+// The table is filled by decodeNumber itself, so both ways agree by construction.
+void RecordProgram::buildSmallTable(ItemProgram& t) {
+    if (t.type != ItemType::Single && t.type != ItemType::Integer && t.type != ItemType::Decimal)
+        return;
+    std::vector<Small> table(kSmallNumbers);
+    Scratch s;
+    for (int v = 0; v < kSmallNumbers; ++v) {
+        const QByteArray text = QByteArray::number(v);
+        Cell cell;
+        s.codes.clear();
+        s.codeSlots.clear();
+        decodeNumber(t, text, cell, s);
+        table[size_t(v)] = {cell.presentedClass, cell.skipIsLegitimate,
+                            cell.codesCount ? s.codeSlots[0] - t.frequencyBase : -1};
+    }
+    for (const auto& shared : m_smallTables)
+        if (*shared == table) {
+            t.small = shared->data();
+            return;
+        }
+    m_smallTables.push_back(std::make_unique<std::vector<Small>>(std::move(table)));
+    t.small = m_smallTables.back()->data();
+}
+
+// Cells of 1 to 3 digits by table; false for anything else.
+bool RecordProgram::decodeSmall(const ItemProgram& t, QByteArrayView v, Cell& out,
+                                Scratch& s) const {
+    const qsizetype n = v.size();
+    if (!t.small || n > 3)
+        return false;
+    int value = 0;
+    for (char c : v) {
+        if (c < '0' || c > '9')
+            return false;
+        value = value * 10 + (c - '0');
+    }
+    if (m_skipCodeIsDigits && v == QByteArrayView(m_skipCode))
+        return false;
+    const Small& e = t.small[value];
+    out.state = State::Number;
+    out.number = value;
+    out.presentedClass = e.presentedClass;
+    out.skipIsLegitimate = e.skipIsLegitimate;
+    if (e.slot >= 0) {
+        out.codesFrom = int(s.codes.size());
+        out.codesCount = 1;
+        s.codes.push_back(value);
+        s.codeSlots.push_back(t.frequencyBase + e.slot);
+    }
+    return true;
 }
 
 RecordProgram::Literal RecordProgram::literal(const cond::Value& v) {
@@ -305,11 +362,8 @@ void RecordProgram::decode(const ItemProgram& t, const std::vector<QByteArrayVie
         cell.skipIsLegitimate = isSkipValue(t, v);
         return;
     }
-    decodeNumber(t, v, cell, s);
-}
-
-const RecordProgram::Cell* RecordProgram::valueAt(int position, const Scratch& s) const {
-    return position >= 0 && s.live[size_t(position)] ? &s.cells[size_t(position)] : nullptr;
+    if (!decodeSmall(t, v, cell, s))
+        decodeNumber(t, v, cell, s);
 }
 
 bool RecordProgram::compare(const Cell* cell, cond::CompareOp op, const Literal& v) const {
@@ -374,8 +428,12 @@ bool RecordProgram::evaluate(int index, const Scratch& s) const {
         return true;
     case Kind::Not:
         return !evaluate(m_children[size_t(n.first)], s);
-    case Kind::Compare:
-        return compare(valueAt(n.position, s), n.op, n.value);
+    case Kind::Compare: {
+        const Cell* cell = valueAt(n.position, s);
+        if (cell && cell->state == State::Number && n.value.isNumber) // the common case
+            return holds(n.op, threeWay(cell->number, n.value.number));
+        return compare(cell, n.op, n.value);
+    }
     case Kind::In: {
         const Cell* cell = valueAt(n.position, s);
         bool in = false;
@@ -450,7 +508,7 @@ void RecordProgram::route(Scratch& s) const {
 
 // DESIGN.md's table, item by item in questionnaire order (a gate later in the
 // order is read before it is classed, as the reference does).
-void RecordProgram::classifyCells(Scratch& s) const {
+void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
     std::fill(s.classes.begin(), s.classes.end(), CellClass::Answered);
     std::fill(s.unknownSkip.begin(), s.unknownSkip.end(), 0);
     std::fill(s.implied.begin(), s.implied.end(), 0);
@@ -459,17 +517,26 @@ void RecordProgram::classifyCells(Scratch& s) const {
         const ItemProgram& t = m_items[size_t(p)];
         if (t.resultIndex < 0)
             continue;
+        qint64* counters = tally ? tally->counters + size_t(t.resultIndex) * kCounters : nullptr;
         const Cell& cell = s.cells[size_t(p)];
         CellClass& c = s.classes[size_t(p)];
         if (s.presented[size_t(p)]) {
             c = cell.presentedClass;
             s.anyValue |= c != CellClass::Blank;
             s.anyInvalid |= c == CellClass::Invalid;
+            if (counters) {
+                ++counters[int(c)];
+                ++counters[Presented];
+                for (int k = 0; k < cell.codesCount; ++k)
+                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+            }
             continue;
         }
         if (!cell.skipIsLegitimate) {
             c = CellClass::RoutingViolation;
             s.anyViolation = true;
+            if (counters)
+                ++counters[int(c)];
             continue;
         }
         c = CellClass::LegitimateSkip;
@@ -481,12 +548,17 @@ void RecordProgram::classifyCells(Scratch& s) const {
             }
         if (t.hasImplied && (t.impliedIf < 0 || evaluate(t.impliedIf, s)))
             s.implied[size_t(p)] = 1;
+        if (counters) {
+            ++counters[int(c)];
+            counters[SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
+            counters[Implied] += s.implied[size_t(p)];
+        }
     }
 }
 
 // Break-off: the presented items are blank from some item to the end (at least
 // two of them, so that one unanswered last question is not a break-off).
-void RecordProgram::findBreakOff(Scratch& s) const {
+void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
     if (++s.stamp == 0) { // wrapped: forget old stamps
         std::fill(s.seen.begin(), s.seen.end(), 0);
         s.stamp = 1;
@@ -504,16 +576,20 @@ void RecordProgram::findBreakOff(Scratch& s) const {
         }
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
+    if (tally && s.breakOffStart >= 0 && s.anyValue) // an empty record is no break-off
+        ++tally->counters[size_t(m_items[size_t(runStart)].resultIndex) * kCounters +
+                          BreakOffStarts];
 }
 
-void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch& s) const {
+void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch& s,
+                             const Tally* tally) const {
     s.codes.clear();
     s.codeSlots.clear();
     for (size_t p = 0; p < m_items.size(); ++p)
         decode(m_items[p], fields, s.cells[p], s);
     route(s);
-    classifyCells(s);
-    findBreakOff(s);
+    classifyCells(s, tally);
+    findBreakOff(s, tally);
 }
 
 RecordClassification RecordProgram::toClassification(const Scratch& s) const {

@@ -6,6 +6,7 @@
 #include <QHash>
 
 #include <cstdint>
+#include <memory>
 #include <vector>
 
 namespace rb {
@@ -20,6 +21,8 @@ namespace rb {
 class RecordProgram {
 public:
     RecordProgram(const CompiledRouting& routing, const HeaderMapping& mapping);
+    RecordProgram(const RecordProgram&) = delete; // items point into its shared tables
+    RecordProgram& operator=(const RecordProgram&) = delete;
 
     // A decoded cell: what conditions read and how the cell is classed.
     struct Cell {
@@ -45,8 +48,18 @@ public:
         int breakOffStart = -1;
     };
 
+    // Per-variable counters, kCounters each: one per CellClass (by its value),
+    // then these. Frequencies: one per frequency slot.
+    enum Counter { Presented = 8, SkipAfterMissingGate, BreakOffStarts, Implied, kCounters };
+    struct Tally {
+        qint64* counters = nullptr;
+        qint64* frequencies = nullptr;
+    };
+
     void prepare(Scratch& s) const;
-    void classify(const std::vector<QByteArrayView>& fields, Scratch& s) const;
+    // Classifies one record; with a tally, also counts it there (in the same pass).
+    void classify(const std::vector<QByteArrayView>& fields, Scratch& s,
+                  const Tally* tally = nullptr) const;
     RecordClassification toClassification(const Scratch& s) const; // for tests
 
     int itemCount() const { return int(m_items.size()); }
@@ -95,6 +108,14 @@ private:
         int condition = -1; // node, -1: always fires
         int target = 0;
     };
+    // Cells "0".."999" decoded once, in a table shared by the items that read
+    // them alike (most items of a big instrument), so it stays in the cache.
+    struct Small {
+        CellClass presentedClass = CellClass::Invalid;
+        bool skipIsLegitimate = false;
+        int slot = -1; // frequency slot (from the item's first) when the number is a code
+        bool operator==(const Small&) const = default;
+    };
     struct ItemProgram {
         ItemType type = ItemType::Statement;
         int resultIndex = -1;
@@ -110,29 +131,38 @@ private:
         bool hasImplied = false;
         int impliedIf = -1; // node, -1: whenever skipped
         int frequencyBase = 0;
+        const struct Small* small = nullptr; // kSmallNumbers entries, shared
     };
 
     int compile(const cond::Expr& expr, const CompiledRouting& routing);
     static Literal literal(const cond::Value& v);
-    void decode(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& cell,
-                Scratch& s) const;
+    [[gnu::always_inline]] inline void decode(const ItemProgram& t,
+                                              const std::vector<QByteArrayView>& fields, Cell& cell,
+                                              Scratch& s) const;
     void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out, Scratch& s) const;
     void decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& out,
                      Scratch& s) const;
     bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
+    void buildSmallTable(ItemProgram& t);
+    [[gnu::always_inline]] inline bool decodeSmall(const ItemProgram& t, QByteArrayView v,
+                                                   Cell& out, Scratch& s) const;
     void route(Scratch& s) const;
-    void classifyCells(Scratch& s) const;
-    void findBreakOff(Scratch& s) const;
+    void classifyCells(Scratch& s, const Tally* tally) const;
+    void findBreakOff(Scratch& s, const Tally* tally) const;
     bool evaluate(int node, const Scratch& s) const;
     bool compare(const Cell* cell, cond::CompareOp op, const Literal& v) const;
     bool answered(const Cell* cell, int position, const Scratch& s) const;
-    const Cell* valueAt(int position, const Scratch& s) const;
+    const Cell* valueAt(int position, const Scratch& s) const {
+        return position >= 0 && s.live[size_t(position)] ? &s.cells[size_t(position)] : nullptr;
+    }
 
     std::vector<ItemProgram> m_items;
     std::vector<Node> m_nodes;
     std::vector<int> m_children;
     std::vector<Element> m_elements;
+    std::vector<std::unique_ptr<std::vector<Small>>> m_smallTables;
     QByteArray m_skipCode;
+    bool m_skipCodeIsDigits = false; // then a small cell may be the skip code itself
     int m_frequencySlots = 0;
     int m_variables = 0;
 };
