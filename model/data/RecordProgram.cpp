@@ -156,6 +156,31 @@ RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping
         }
         buildSmallTable(t);
     }
+    buildHot();
+}
+
+void RecordProgram::buildHot() {
+    m_hot.resize(m_items.size());
+    for (size_t p = 0; p < m_items.size(); ++p) {
+        const ItemProgram& t = m_items[p];
+        Hot& h = m_hot[p];
+        h.type = t.type;
+        h.hasImplied = t.hasImplied;
+        h.resultIndex = t.resultIndex;
+        h.column = t.column;
+        h.impliedIf = t.impliedIf;
+        h.small = t.small;
+        h.frequencyBase = t.frequencyBase;
+        h.filtersFrom = int(m_filters.size());
+        m_filters.insert(m_filters.end(), t.filters.begin(), t.filters.end());
+        h.filtersTo = int(m_filters.size());
+        h.rulesFrom = int(m_rules.size());
+        m_rules.insert(m_rules.end(), t.rules.begin(), t.rules.end());
+        h.rulesTo = int(m_rules.size());
+        h.gatesFrom = int(m_gates.size());
+        m_gates.insert(m_gates.end(), t.gates.begin(), t.gates.end());
+        h.gatesTo = int(m_gates.size());
+    }
 }
 
 // The table is filled by decodeNumber itself, so both ways agree by construction.
@@ -183,8 +208,7 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
 }
 
 // Cells of 1 to 3 digits by table; false for anything else.
-bool RecordProgram::decodeSmall(const ItemProgram& t, QByteArrayView v, Cell& out,
-                                Scratch& s) const {
+bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out, Scratch& s) const {
     const qsizetype n = v.size();
     if (!t.small || n > 3)
         return false;
@@ -227,7 +251,10 @@ int RecordProgram::compile(const cond::Expr& expr, const CompiledRouting& routin
     n.kind = expr.kind;
     n.op = expr.op;
     n.negated = expr.negated;
-    n.value = literal(expr.value);
+    n.isNumber = expr.value.isNumber();
+    n.number = expr.value.number;
+    m_literals.push_back(literal(expr.value));
+    n.literal = int(m_literals.size()) - 1;
     if (!expr.name.isEmpty())
         n.position = routing.positionOf(expr.name); // unknown: -1, never presented
     std::vector<int> children;
@@ -338,32 +365,33 @@ void RecordProgram::decodeMulti(const ItemProgram& t, const std::vector<QByteArr
         out.presentedClass = classOfMissing(t.codes.find(s.codes[size_t(out.codesFrom)])->kind);
 }
 
-void RecordProgram::decode(const ItemProgram& t, const std::vector<QByteArrayView>& fields,
-                           Cell& cell, Scratch& s) const {
+void RecordProgram::decode(size_t p, const std::vector<QByteArrayView>& fields, Cell& cell,
+                           Scratch& s) const {
+    const Hot& h = m_hot[p];
     cell = Cell{};
-    switch (t.type) {
+    switch (h.type) {
     case ItemType::Statement:
         cell.presentedClass = CellClass::Answered;
         return;
     case ItemType::Multi:
-        decodeMulti(t, fields, cell, s);
+        decodeMulti(m_items[p], fields, cell, s);
         return;
     default:
         break;
     }
-    const QByteArrayView v = t.column < 0 ? QByteArrayView() : fields[size_t(t.column)];
+    const QByteArrayView v = h.column < 0 ? QByteArrayView() : fields[size_t(h.column)];
     if (v.isEmpty())
         return; // blank: presented blank, skipped legitimately
-    if (t.type == ItemType::Text || t.type == ItemType::Date) {
+    if (h.type == ItemType::Text || h.type == ItemType::Date) {
         cell.state = State::Text;
         cell.text = v;
         cell.presentedClass =
-            t.type == ItemType::Text || isIsoDate(v) ? CellClass::Answered : CellClass::Invalid;
-        cell.skipIsLegitimate = isSkipValue(t, v);
+            h.type == ItemType::Text || isIsoDate(v) ? CellClass::Answered : CellClass::Invalid;
+        cell.skipIsLegitimate = isSkipValue(m_items[p], v);
         return;
     }
-    if (!decodeSmall(t, v, cell, s))
-        decodeNumber(t, v, cell, s);
+    if (!decodeSmall(h, v, cell, s))
+        decodeNumber(m_items[p], v, cell, s);
 }
 
 bool RecordProgram::compare(const Cell* cell, cond::CompareOp op, const Literal& v) const {
@@ -430,9 +458,9 @@ bool RecordProgram::evaluate(int index, const Scratch& s) const {
         return !evaluate(m_children[size_t(n.first)], s);
     case Kind::Compare: {
         const Cell* cell = valueAt(n.position, s);
-        if (cell && cell->state == State::Number && n.value.isNumber) // the common case
-            return holds(n.op, threeWay(cell->number, n.value.number));
-        return compare(cell, n.op, n.value);
+        if (cell && cell->state == State::Number && n.isNumber) // the common case
+            return holds(n.op, threeWay(cell->number, n.number));
+        return compare(cell, n.op, m_literals[size_t(n.literal)]);
     }
     case Kind::In: {
         const Cell* cell = valueAt(n.position, s);
@@ -447,10 +475,10 @@ bool RecordProgram::evaluate(int index, const Scratch& s) const {
     }
     case Kind::Has: {
         const Cell* cell = valueAt(n.position, s);
-        if (!cell || cell->state != State::Codes || !n.value.isNumber)
+        if (!cell || cell->state != State::Codes || !n.isNumber)
             return false;
         for (int k = 0; k < cell->codesCount; ++k)
-            if (double(s.codes[size_t(cell->codesFrom + k)]) == n.value.number)
+            if (double(s.codes[size_t(cell->codesFrom + k)]) == n.number)
                 return true;
         return false;
     }
@@ -481,13 +509,10 @@ void RecordProgram::route(Scratch& s) const {
             s.loop = true;
             break;
         }
-        const ItemProgram& t = m_items[size_t(position)];
+        const Hot& t = m_hot[size_t(position)];
         bool pass = true;
-        for (int f : t.filters)
-            if (!evaluate(f, s)) {
-                pass = false;
-                break;
-            }
+        for (int f = t.filtersFrom; f < t.filtersTo && pass; ++f)
+            pass = evaluate(m_filters[size_t(f)], s);
         if (!pass) {
             s.live[size_t(position)] = 0; // filtered: empty
             ++position;
@@ -497,11 +522,13 @@ void RecordProgram::route(Scratch& s) const {
         s.presented[size_t(position)] = 1;
         s.path.push_back(position);
         int next = position + 1;
-        for (const Rule& rule : t.rules)
+        for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
+            const Rule& rule = m_rules[size_t(r)];
             if (rule.condition < 0 || evaluate(rule.condition, s)) {
                 next = rule.target;
                 break;
             }
+        }
         position = next;
     }
 }
@@ -514,7 +541,7 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
     std::fill(s.implied.begin(), s.implied.end(), 0);
     s.anyValue = s.anyViolation = s.anyInvalid = false;
     for (int p = 0; p < itemCount(); ++p) {
-        const ItemProgram& t = m_items[size_t(p)];
+        const Hot& t = m_hot[size_t(p)];
         if (t.resultIndex < 0)
             continue;
         qint64* counters = tally ? tally->counters + size_t(t.resultIndex) * kCounters : nullptr;
@@ -540,12 +567,14 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
             continue;
         }
         c = CellClass::LegitimateSkip;
-        for (int g : t.gates)
+        for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
+            const int g = m_gates[size_t(k)];
             if (s.presented[size_t(g)] ? isNonresponse(s.classes[size_t(g)])
                                        : bool(s.unknownSkip[size_t(g)])) {
                 s.unknownSkip[size_t(p)] = 1;
                 break;
             }
+        }
         if (t.hasImplied && (t.impliedIf < 0 || evaluate(t.impliedIf, s)))
             s.implied[size_t(p)] = 1;
         if (counters) {
@@ -565,7 +594,7 @@ void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
     }
     int runStart = -1, runLength = 0;
     for (int p : s.path) {
-        if (m_items[size_t(p)].resultIndex < 0 || s.seen[size_t(p)] == s.stamp)
+        if (m_hot[size_t(p)].resultIndex < 0 || s.seen[size_t(p)] == s.stamp)
             continue;
         s.seen[size_t(p)] = s.stamp;
         if (s.classes[size_t(p)] == CellClass::Blank) {
@@ -577,8 +606,7 @@ void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
     if (tally && s.breakOffStart >= 0 && s.anyValue) // an empty record is no break-off
-        ++tally->counters[size_t(m_items[size_t(runStart)].resultIndex) * kCounters +
-                          BreakOffStarts];
+        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
 }
 
 void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch& s,
@@ -586,7 +614,7 @@ void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch&
     s.codes.clear();
     s.codeSlots.clear();
     for (size_t p = 0; p < m_items.size(); ++p)
-        decode(m_items[p], fields, s.cells[p], s);
+        decode(p, fields, s.cells[p], s);
     route(s);
     classifyCells(s, tally);
     findBreakOff(s, tally);
