@@ -143,8 +143,13 @@ RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping
             if (rule.usable)
                 t.rules.push_back(
                     {rule.condition ? compile(*rule.condition, routing) : -1, rule.target});
+        // The reference classes items in questionnaire order: a gate at or after the
+        // item is not classed yet then and never marks it, so only earlier ones count.
         for (int g : skipGates(routing, p))
-            t.gates.push_back(g);
+            if (g < p)
+                t.gates.push_back(g);
+        for (const Rule& rule : t.rules)
+            m_forwardOnly &= rule.target > p;
         if (item.whenSkipped && t.type != ItemType::Statement) {
             if (!item.whenSkipped->condition) {
                 t.hasImplied = true;
@@ -157,6 +162,9 @@ RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping
         buildSmallTable(t);
     }
     buildHot();
+    for (int p = 0; p < count; ++p)
+        if (m_items[size_t(p)].hasImplied)
+            m_impliedItems.push_back(p);
 }
 
 void RecordProgram::buildHot() {
@@ -613,11 +621,119 @@ void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch&
                              const Tally* tally) const {
     s.codes.clear();
     s.codeSlots.clear();
+    if (m_forwardOnly) {
+        classifyForward(fields, s, tally);
+        return;
+    }
     for (size_t p = 0; p < m_items.size(); ++p)
         decode(p, fields, s.cells[p], s);
     route(s);
     classifyCells(s, tally);
     findBreakOff(s, tally);
+}
+
+// The same route and classes in one pass, for routing whose rules all jump
+// forward: every position is then reached, filtered or jumped over exactly
+// once, in order, so an item's class is final when the route passes it (its
+// gates are earlier items). Cells are decoded only when presented, or when a
+// skipped cell is not blank; implied values wait for the route's final values.
+void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
+                                    const Tally* tally) const {
+    const int count = itemCount();
+    std::fill(s.live.begin(), s.live.end(), 0);
+    s.path.clear();
+    s.loop = false;
+    s.anyValue = s.anyViolation = s.anyInvalid = false;
+    int next = 0, runStart = -1, runLength = 0;
+    for (int p = 0; p < count; ++p) {
+        const Hot& t = m_hot[size_t(p)];
+        bool reached = p >= next;
+        if (reached)
+            for (int f = t.filtersFrom; f < t.filtersTo && reached; ++f)
+                reached = evaluate(m_filters[size_t(f)], s);
+        qint64* counters = tally && t.resultIndex >= 0
+                               ? tally->counters + size_t(t.resultIndex) * kCounters
+                               : nullptr;
+        if (reached) { // presented
+            Cell& cell = s.cells[size_t(p)];
+            decode(size_t(p), fields, cell, s);
+            s.live[size_t(p)] = 1;
+            s.presented[size_t(p)] = 1;
+            s.path.push_back(p);
+            next = p + 1;
+            for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
+                const Rule& rule = m_rules[size_t(r)];
+                if (rule.condition < 0 || evaluate(rule.condition, s)) {
+                    next = rule.target;
+                    break;
+                }
+            }
+            if (t.resultIndex < 0)
+                continue;
+            const CellClass c = cell.presentedClass;
+            s.classes[size_t(p)] = c;
+            s.unknownSkip[size_t(p)] = 0;
+            s.implied[size_t(p)] = 0;
+            s.anyValue |= c != CellClass::Blank;
+            s.anyInvalid |= c == CellClass::Invalid;
+            if (c == CellClass::Blank) {
+                if (runLength++ == 0)
+                    runStart = p;
+            } else {
+                runLength = 0;
+            }
+            if (counters) {
+                ++counters[int(c)];
+                ++counters[Presented];
+                for (int k = 0; k < cell.codesCount; ++k)
+                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+            }
+            continue;
+        }
+        s.presented[size_t(p)] = 0; // filtered or jumped over
+        if (t.resultIndex < 0)
+            continue;
+        s.implied[size_t(p)] = 0;
+        s.unknownSkip[size_t(p)] = 0;
+        bool legitimate = true;
+        if (t.type == ItemType::Multi || (t.column >= 0 && !fields[size_t(t.column)].isEmpty())) {
+            Cell cell;
+            decode(size_t(p), fields, cell, s);
+            legitimate = cell.skipIsLegitimate;
+        }
+        if (!legitimate) {
+            s.classes[size_t(p)] = CellClass::RoutingViolation;
+            s.anyViolation = true;
+            if (counters)
+                ++counters[int(CellClass::RoutingViolation)];
+            continue;
+        }
+        s.classes[size_t(p)] = CellClass::LegitimateSkip;
+        for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
+            const int g = m_gates[size_t(k)];
+            if (s.presented[size_t(g)] ? isNonresponse(s.classes[size_t(g)])
+                                       : bool(s.unknownSkip[size_t(g)])) {
+                s.unknownSkip[size_t(p)] = 1;
+                break;
+            }
+        }
+        if (counters) {
+            ++counters[int(CellClass::LegitimateSkip)];
+            counters[SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
+        }
+    }
+    for (int p : m_impliedItems) { // over the route's final values
+        const Hot& t = m_hot[size_t(p)];
+        if (s.classes[size_t(p)] == CellClass::LegitimateSkip &&
+            (t.impliedIf < 0 || evaluate(t.impliedIf, s))) {
+            s.implied[size_t(p)] = 1;
+            if (tally)
+                ++tally->counters[size_t(t.resultIndex) * kCounters + Implied];
+        }
+    }
+    s.breakOffStart = runLength >= 2 ? runStart : -1;
+    if (tally && s.breakOffStart >= 0 && s.anyValue)
+        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
 }
 
 RecordClassification RecordProgram::toClassification(const Scratch& s) const {

@@ -69,6 +69,7 @@ public:
     int frequencyBase(int p) const { return m_items[size_t(p)].frequencyBase; }
     int frequencySlots() const { return m_frequencySlots; }
     int variables() const { return m_variables; }
+    bool forwardOnly() const { return m_forwardOnly; } // classified in one pass
 
 private:
     // Codes of one item by value: an array over [low, low + size) when the codes
@@ -162,6 +163,8 @@ private:
     [[gnu::always_inline]] inline bool decodeSmall(const struct Hot& t, QByteArrayView v, Cell& out,
                                                    Scratch& s) const;
     void route(Scratch& s) const;
+    void classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
+                         const Tally* tally) const;
     void classifyCells(Scratch& s, const Tally* tally) const;
     void findBreakOff(Scratch& s, const Tally* tally) const;
     bool evaluate(int node, const Scratch& s) const;
@@ -182,6 +185,8 @@ private:
     std::vector<std::unique_ptr<std::vector<Small>>> m_smallTables;
     QByteArray m_skipCode;
     bool m_skipCodeIsDigits = false; // then a small cell may be the skip code itself
+    std::vector<int> m_impliedItems; // positions with when_skipped
+    bool m_forwardOnly = true;       // every usable rule jumps forward: no loop possible
     int m_frequencySlots = 0;
     int m_variables = 0;
 };
