@@ -650,7 +650,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
         bool reached = p >= next;
         if (reached)
             for (int f = t.filtersFrom; f < t.filtersTo && reached; ++f)
-                reached = evaluate(m_filters[size_t(f)], s);
+                reached = test(m_filters[size_t(f)], s);
         qint64* counters = tally && t.resultIndex >= 0
                                ? tally->counters + size_t(t.resultIndex) * kCounters
                                : nullptr;
@@ -663,7 +663,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             next = p + 1;
             for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
                 const Rule& rule = m_rules[size_t(r)];
-                if (rule.condition < 0 || evaluate(rule.condition, s)) {
+                if (rule.condition < 0 || test(rule.condition, s)) {
                     next = rule.target;
                     break;
                 }
