@@ -402,7 +402,11 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
 
     // Several threads: a few blocks in flight, merged in file order as they come back.
     WorkerPool pool(threads, makeChecker);
-    const int maxInFlight = 2 * threads;
+    // Two blocks per thread keep every core busy; at most about 64 MB of blocks
+    // in flight keeps the peak memory bounded on machines with many cores.
+    const int maxInFlight =
+        qMin(2 * threads,
+             qMax(threads + 1, int((qint64(64) << 20) / qMax<qsizetype>(options.blockBytes, 1))));
     qint64 pushed = 0, merged = 0;
     bool more = true;
     first.bytes = first.block.bytes.size();
