@@ -1,6 +1,7 @@
 #include "EditorWindow.h"
 
 #include "CodeListPanel.h"
+#include "DataCheckDialog.h"
 #include "FindingsModel.h"
 #include "Icons.h"
 #include "ItemForm.h"
@@ -319,6 +320,8 @@ void EditorWindow::buildEditMenu() {
     restart->setShortcut(QKeySequence(Qt::Key_F5));
     run->addAction(tr("&Check now"), m_runner, &AnalysisRunner::runNow)
         ->setShortcut(QKeySequence(Qt::Key_F7));
+    run->addAction(tr("Check a &response file..."), this,
+                   [this] { DataCheckRun::askAndRun(m_document->instrument(), this); });
     tools->addSeparator();
     tools->addAction(restart);
 }

@@ -8,11 +8,6 @@ namespace rb {
 
 using cond::CellValue;
 
-bool isNonresponse(CellClass c) {
-    return c == CellClass::Blank || c == CellClass::DontKnow || c == CellClass::Refused ||
-           c == CellClass::NotApplicable;
-}
-
 bool parseCellNumber(QByteArrayView cell, double& value) {
     qsizetype i = 0;
     const qsizetype n = cell.size();

@@ -23,7 +23,10 @@ enum class CellClass {
     LegitimateSkip,
     RoutingViolation
 };
-bool isNonresponse(CellClass c);
+inline bool isNonresponse(CellClass c) {
+    return c == CellClass::Blank || c == CellClass::DontKnow || c == CellClass::Refused ||
+           c == CellClass::NotApplicable;
+}
 
 // Numbers in a response file: an optional minus, digits, optionally a point and
 // digits ("3", "-2", "2.5"). Anything else ("1e3", "+4", " 3", ".5") is not a

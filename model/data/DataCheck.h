@@ -70,7 +70,14 @@ struct DataCheckOptions {
     qint64 maxRecordBytes = 4 * 1024 * 1024;
     int firstRecordsKept = 10;
     int invalidCellsKept = 20;
-    // Called now and then with bytes read so far; returning false cancels.
+    // Worker threads for the records (0: one per core). The result does not
+    // depend on it; with an analysis file the records are checked in one thread.
+    int threads = 0;
+    // Records are read and checked in blocks of about this many bytes (tests use
+    // tiny blocks to exercise the merge).
+    qsizetype blockBytes = 4 << 20;
+    // Called now and then (on the calling thread) with the bytes checked so far;
+    // returning false cancels.
     std::function<bool(qint64 bytesRead)> progress;
 };
 

@@ -1,23 +1,20 @@
 #pragma once
 
 #include "CellReading.h"
-#include "DataCheck.h"
+#include "RecordClassification.h"
 
 namespace rb {
 
-// Classifies the cells of one record at a time: runs the reference route on
-// the record's own values, then applies DESIGN.md's table to every item, and
-// builds the record's analysis-file row.
+// The reference classification of one record, written for clarity over speed:
+// reads every cell with CellInterpreter, runs the simulator (simulateRoute) on
+// the record's own values and applies DESIGN.md's table to every item. The data
+// check runs the compiled RecordProgram; tst_datacheck proves both agree on
+// random instruments and records.
 class RecordChecker {
 public:
-    RecordChecker(const CompiledRouting& routing, const HeaderMapping& mapping,
-                  const QString& fileName, const DataCheckOptions& options,
-                  const AnalysisOptions& analysisOptions);
+    RecordChecker(const CompiledRouting& routing, const HeaderMapping& mapping);
 
-    DataCheckResult emptyResult() const;
-    QStringList analysisHeader() const;
-    void check(const std::vector<QByteArrayView>& fields, qint64 record, qint64 line,
-               DataCheckResult& into, QList<QByteArray>* analysisRow) const;
+    RecordClassification classify(const std::vector<QByteArrayView>& fields) const;
 
 private:
     struct ItemPlan {
@@ -26,24 +23,11 @@ private:
         bool hasImplied = false;    // when_skipped set
         cond::ExprPtr impliedIf;    // null with hasImplied: whenever not presented
         bool impliedBroken = false; // the `if` does not compile: never filled
-        QByteArray impliedValue;
-        int resultIndex = -1; // index in DataCheckResult::items
-        QHash<qint64, int> frequencyIndex;
     };
 
-    void note(ProblemRecords& problems, const QString& id) const;
-    QString recordId(const std::vector<QByteArrayView>& fields, qint64 record) const;
-    void writeRow(const std::vector<QByteArrayView>& fields, const std::vector<CellClass>& classes,
-                  const std::vector<char>& implied, QList<QByteArray>& row) const;
-
     const CompiledRouting& m_routing;
-    const HeaderMapping& m_mapping;
-    QString m_fileName;
-    DataCheckOptions m_options;
-    AnalysisOptions m_analysis;
     CellInterpreter m_cells;
     std::vector<ItemPlan> m_plans;
-    QByteArray m_skipCode;
 };
 
 } // namespace rb

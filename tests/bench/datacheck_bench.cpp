@@ -1,7 +1,9 @@
 // Benchmark of the data check (not a ctest test; timings are printed, never asserted).
 //   datacheck_bench generate DIR RECORDS [ITEMS]   writes DIR/bench.yaml and DIR/bench.csv
-//   datacheck_bench run DIR                        checks DIR/bench.csv, prints MB/s and peak
-//   memory
+//   datacheck_bench run DIR [THREADS]              checks DIR/bench.csv, prints MB/s and peak
+//   memory (THREADS 0 or absent: one per core)
+//   datacheck_bench loop DIR                       a plain byte loop over DIR/bench.csv (the
+//   floor: read in 4 MB blocks, count line feeds and commas, touch every byte)
 // The generated instrument: ITEMS (default 300) items in groups of 10; the first item
 // of a group is a yes/no gate, the next 9 are asked only if it is 1 (about 44% of the
 // cells are legitimately skipped: 9/10 of the items with a 1-in-2 gate ... see below).
@@ -13,6 +15,7 @@
 #include <QFile>
 #include <QRandomGenerator>
 #include <QTextStream>
+#include <QThread>
 
 #include <sys/resource.h>
 
@@ -67,7 +70,29 @@ static int generate(const QString& dir, qint64 records, int items) {
     return 0;
 }
 
-static int runCheck(const QString& dir) {
+static int byteLoop(const QString& dir) {
+    QFile data(dir + QStringLiteral("/bench.csv"));
+    if (!data.open(QIODevice::ReadOnly))
+        return 2;
+    QElapsedTimer clock;
+    clock.start();
+    QByteArray block(4 << 20, Qt::Uninitialized);
+    qint64 lines = 0, commas = 0, total = 0;
+    for (qint64 got; (got = data.read(block.data(), block.size())) > 0;) {
+        total += got;
+        for (qint64 k = 0; k < got; ++k) {
+            lines += block[k] == '\n';
+            commas += block[k] == ',';
+        }
+    }
+    const double seconds = double(clock.nsecsElapsed()) / 1e9;
+    QTextStream(stdout) << "byte loop: " << lines << " lines, " << commas << " commas, "
+                        << QString::number(seconds, 'f', 2) << " s, "
+                        << QString::number(double(total) / 1e6 / seconds, 'f', 1) << " MB/s\n";
+    return 0;
+}
+
+static int runCheck(const QString& dir, int threads) {
     LoadResult loaded = loadYamlFile(dir + QStringLiteral("/bench.yaml"));
     if (!loaded.ok())
         return 2;
@@ -77,7 +102,9 @@ static int runCheck(const QString& dir) {
         return 2;
     QElapsedTimer clock;
     clock.start();
-    const DataCheckOutcome outcome = runDataCheck(routing, data, data.fileName(), {});
+    DataCheckOptions options;
+    options.threads = threads;
+    const DataCheckOutcome outcome = runDataCheck(routing, data, data.fileName(), options);
     const double seconds = double(clock.nsecsElapsed()) / 1e9;
     rusage usage{};
     getrusage(RUSAGE_SELF, &usage);
@@ -97,7 +124,7 @@ static int runCheck(const QString& dir) {
         << "% legitimately skipped\n"
         << "data check: " << QString::number(seconds, 'f', 2) << " s, "
         << QString::number(mb / seconds, 'f', 1) << " MB/s, peak RSS " << usage.ru_maxrss / 1024
-        << " MB\n";
+        << " MB, " << (threads > 0 ? threads : QThread::idealThreadCount()) << " thread(s)\n";
     return 0;
 }
 
@@ -107,8 +134,11 @@ int main(int argc, char** argv) {
     if (args.size() >= 4 && args.at(1) == QLatin1String("generate"))
         return generate(args.at(2), args.at(3).toLongLong(),
                         args.size() > 4 ? args.at(4).toInt() : 300);
-    if (args.size() == 3 && args.at(1) == QLatin1String("run"))
-        return runCheck(args.at(2));
-    QTextStream(stderr) << "usage: datacheck_bench generate DIR RECORDS [ITEMS] | run DIR\n";
+    if ((args.size() == 3 || args.size() == 4) && args.at(1) == QLatin1String("run"))
+        return runCheck(args.at(2), args.size() == 4 ? args.at(3).toInt() : 0);
+    if (args.size() == 3 && args.at(1) == QLatin1String("loop"))
+        return byteLoop(args.at(2));
+    QTextStream(stderr)
+        << "usage: datacheck_bench generate DIR RECORDS [ITEMS] | run DIR [THREADS] | loop DIR\n";
     return 2;
 }

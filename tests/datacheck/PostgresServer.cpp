@@ -8,16 +8,29 @@
 #include <pwd.h>
 #include <unistd.h>
 
-PostgresServer::PostgresServer() {
+// The server's programs: `pg_config --bindir`, else Debian's versioned folders
+// (pg_config may be missing when only the server package is installed).
+static QString postgresBinDir() {
     QProcess config;
     config.start(QStringLiteral("pg_config"), {QStringLiteral("--bindir")});
-    if (!config.waitForFinished(10000) || config.exitCode() != 0) {
-        m_problem = QStringLiteral("pg_config not found (Debian package postgresql)");
-        return;
+    if (config.waitForFinished(10000) && config.exitCode() == 0) {
+        const QString bin = QString::fromUtf8(config.readAllStandardOutput()).trimmed();
+        if (QFile::exists(bin + QStringLiteral("/initdb")))
+            return bin;
     }
-    m_bin = QString::fromUtf8(config.readAllStandardOutput()).trimmed();
-    if (!QFile::exists(m_bin + QStringLiteral("/initdb"))) {
-        m_problem = QStringLiteral("no initdb in %1 (install the server package)").arg(m_bin);
+    QDir versions(QStringLiteral("/usr/lib/postgresql"));
+    const QStringList found = versions.entryList(QDir::Dirs | QDir::NoDotAndDotDot, QDir::Name);
+    for (auto it = found.crbegin(); it != found.crend(); ++it)
+        if (QFile::exists(versions.filePath(*it + QStringLiteral("/bin/initdb"))))
+            return versions.filePath(*it + QStringLiteral("/bin"));
+    return {};
+}
+
+PostgresServer::PostgresServer() {
+    m_bin = postgresBinDir();
+    if (m_bin.isEmpty()) {
+        m_problem = QStringLiteral("no initdb through pg_config or in /usr/lib/postgresql "
+                                   "(Debian package postgresql)");
         return;
     }
     m_available = true;

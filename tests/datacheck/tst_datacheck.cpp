@@ -3,10 +3,15 @@
 // bad files. Expected counts are reasoned by hand from garden.yaml and
 // garden-responses.csv (see the comments), never taken from the program's output.
 #include "PostgresServer.h"
+#include "RandomInstrument.h"
 #include "SqlReplay.h"
 #include "cli/Cli.h"
+#include "data/CsvRange.h"
+#include "data/CsvReader.h"
 #include "data/DataCheck.h"
 #include "data/DataCheckJson.h"
+#include "data/RecordChecker.h"
+#include "data/RecordProgram.h"
 #include "export/SqlExport.h"
 #include "storage/YamlFormat.h"
 
@@ -15,6 +20,8 @@
 #include <QJsonArray>
 #include <QJsonDocument>
 #include <QJsonObject>
+#include <QRandomGenerator>
+#include <QSet>
 #include <QTemporaryDir>
 #include <QTest>
 
@@ -94,6 +101,11 @@ private slots:
     void sqlReplayMatchesOnSqlite();
     void sqlRefusesLoops();
     void sqlReplayMatchesOnPostgres();
+    void compiledProgramMatchesReference_data();
+    void compiledProgramMatchesReference();
+    void blocksAndThreadsGiveTheSameResult_data();
+    void blocksAndThreadsGiveTheSameResult();
+    void rangeParserMatchesStreamingReader();
 };
 
 // Routing of garden.yaml: has_garden, then (if has_garden <> 1, i.e. 2, 8, 9 or
@@ -463,6 +475,209 @@ void TestDataCheck::sqlReplayMatchesOnPostgres() {
     for (const QString& line : output.split(u'\n', Qt::SkipEmptyParts))
         rows.append(line.section(u',', 1)); // drop the position column
     QCOMPARE(rows, countRows(*outcome.result));
+}
+
+namespace {
+
+QList<QByteArrayView> views(const QList<QByteArray>& row) {
+    return QList<QByteArrayView>(row.begin(), row.end());
+}
+
+QString describe(const RecordClassification& r) {
+    QStringList classes;
+    for (size_t p = 0; p < r.classes.size(); ++p)
+        classes.append(
+            QStringLiteral("%1:%2%3%4")
+                .arg(p)
+                .arg(cellClassName(r.classes[p]))
+                .arg(r.unknownSkip[p] ? u"?"_s : QString(), r.implied[p] ? u"+"_s : QString()));
+    QStringList path;
+    for (int p : r.path)
+        path.append(QString::number(p));
+    return u"path "_s + path.join(u' ') + (r.loop ? u" (loop)"_s : QString()) + u" | "_s +
+           classes.join(u' ') + u" | break-off "_s + QString::number(r.breakOffStart);
+}
+
+// Everything a result holds, as text, for comparing two runs.
+QString everything(const DataCheckOutcome& o) {
+    if (!o.result)
+        return u"error "_s + o.error->toString();
+    const DataCheckResult& r = *o.result;
+    QString text = QString::fromUtf8(QJsonDocument(dataCheckToJson(r)).toJson());
+    for (const ItemCounts& c : r.items)
+        text += QStringLiteral("\n%1 %2 %3 %4")
+                    .arg(c.name)
+                    .arg(c.skipAfterMissingGate)
+                    .arg(c.breakOffStarts)
+                    .arg(c.implied);
+    for (const ProblemRecords* p :
+         {&r.violations, &r.invalid, &r.breakOffs, &r.emptyRecords, &r.loops})
+        text += QStringLiteral("\n%1: %2").arg(p->count).arg(p->first.join(u','));
+    for (const Diagnostic& d : r.invalidCells)
+        text += u'\n' + d.toString();
+    return text;
+}
+
+} // namespace
+
+// The compiled RecordProgram against the reference (CellInterpreter + simulateRoute,
+// RecordChecker): the same path, loop flag, class of every cell, unknown-gate and
+// implied flags, counted codes and break-off for every record of random instruments.
+void TestDataCheck::compiledProgramMatchesReference_data() {
+    QTest::addColumn<quint32>("seed");
+    for (quint32 seed = 1; seed <= 60; ++seed)
+        QTest::addRow("instrument %u", seed) << seed;
+}
+
+void TestDataCheck::compiledProgramMatchesReference() {
+    QFETCH(quint32, seed);
+    const QByteArray yaml = randomInstrumentYaml(seed);
+    LoadResult loaded = loadYamlText(yaml, u"random.yaml"_s);
+    QVERIFY2(loaded.ok(), qPrintable(formatDiagnostics(loaded.errors) + QString::fromUtf8(yaml)));
+    const CompiledRouting routing(*loaded.instrument);
+    const GeneratedResponses data = generateResponses(routing, 400, seed * 7 + 1);
+    std::vector<QByteArrayView> header;
+    QList<QByteArray> names;
+    for (const QString& c : data.columns)
+        names.append(c.toUtf8());
+    for (const QByteArray& n : names)
+        header.push_back(n);
+    const HeaderMappingResult mapped = mapHeader(routing, header, u"r.csv"_s, QString());
+    QVERIFY(!mapped.error);
+    const RecordChecker reference(routing, mapped.mapping);
+    const RecordProgram program(routing, mapped.mapping);
+    RecordProgram::Scratch scratch;
+    program.prepare(scratch);
+    static QSet<QString> seen; // classes met over all seeds (checked on the last one)
+    // Both ways of the program: one pass (rules only jump forward) and route then classes.
+    seen.insert(program.forwardOnly() ? u"one pass"_s : u"two passes"_s);
+    for (qsizetype r = 0; r < data.rows.size(); ++r) {
+        const QList<QByteArrayView> row = views(data.rows.at(r));
+        const std::vector<QByteArrayView> fields(row.begin(), row.end());
+        const RecordClassification expected = reference.classify(fields);
+        program.classify(fields, scratch);
+        const RecordClassification actual = program.toClassification(scratch);
+        if (!(actual == expected))
+            QFAIL(qPrintable(u"record %1 differs\nreference %2\ncompiled  %3\n%4"_s.arg(r + 1).arg(
+                describe(expected), describe(actual), QString::fromUtf8(yaml))));
+        for (CellClass c : expected.classes)
+            seen.insert(cellClassName(c));
+        if (expected.loop)
+            seen.insert(u"loop"_s);
+        if (expected.breakOffStart >= 0)
+            seen.insert(u"break-off"_s);
+        for (size_t p = 0; p < expected.classes.size(); ++p) {
+            if (expected.implied[p])
+                seen.insert(u"implied"_s);
+            if (expected.unknownSkip[p])
+                seen.insert(u"unknown skip"_s);
+        }
+    }
+    if (seed == 60) // the random instruments reach every case at least once
+        for (const QString& c :
+             {u"answered"_s, u"blank"_s, u"dont_know"_s, u"refused"_s, u"not_applicable"_s,
+              u"invalid"_s, u"legitimate_skip"_s, u"routing_violation"_s, u"loop"_s, u"break-off"_s,
+              u"implied"_s, u"unknown skip"_s})
+            QVERIFY2(seen.contains(c), qPrintable(c));
+}
+
+// Blocks cut anywhere (down to a few bytes) and any number of threads give the
+// same result as one block in one thread: counts, first records, invalid cells
+// with their lines, and the first error.
+void TestDataCheck::blocksAndThreadsGiveTheSameResult_data() {
+    QTest::addColumn<QString>("instrument");
+    QTest::addColumn<QByteArray>("csv");
+    QTest::addColumn<QString>("idColumn");
+    const QByteArray garden = readFile(kDir + u"garden-responses.csv"_s);
+    QTest::newRow("garden") << kDir + u"garden.yaml"_s << garden << QString();
+    QTest::newRow("garden, ids") << kDir + u"garden.yaml"_s << garden << u"comments"_s;
+    QTest::newRow("garden, ragged late") << kDir + u"garden.yaml"_s << garden + "1,2\n"
+                                         << QString();
+    QTest::newRow("garden, CRLF") << kDir + u"garden.yaml"_s
+                                  << QByteArray(garden).replace("\n", "\r\n") << QString();
+    LoadResult loaded =
+        loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/household-energy.yaml"));
+    QVERIFY(loaded.ok());
+    const CompiledRouting routing(*loaded.instrument);
+    GeneratedResponses data = generateResponses(routing, 300, 5);
+    // Quoted cells, some with commas, doubled quotes and line breaks inside.
+    QRandomGenerator rng(9);
+    for (QList<QByteArray>& row : data.rows)
+        for (QByteArray& cell : row)
+            if (rng.bounded(7) == 0)
+                cell = '"' + cell + '"';
+            else if (cell == "abc" && rng.bounded(2))
+                cell = "\"a,\"\"b\"\"\nc\"";
+    QTest::newRow("household energy, quotes")
+        << QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/household-energy.yaml") << data.csv()
+        << QString();
+}
+
+void TestDataCheck::blocksAndThreadsGiveTheSameResult() {
+    QFETCH(QString, instrument);
+    QFETCH(QByteArray, csv);
+    QFETCH(QString, idColumn);
+    LoadResult loaded = loadYamlFile(instrument);
+    QVERIFY(loaded.ok());
+    const CompiledRouting routing(*loaded.instrument);
+    auto run = [&](qsizetype blockBytes, int threads) {
+        QBuffer buffer;
+        buffer.setData(csv);
+        buffer.open(QIODevice::ReadOnly);
+        DataCheckOptions options;
+        options.idColumn = idColumn;
+        options.blockBytes = blockBytes;
+        options.threads = threads;
+        options.invalidCellsKept = 1000;
+        return everything(runDataCheck(routing, buffer, u"d.csv"_s, options));
+    };
+    const QString one = run(qsizetype(csv.size()) + 1, 1);
+    QVERIFY(one.contains(u"\"records\""_s) || one.startsWith(u"error"_s));
+    for (qsizetype block : {1, 7, 64, 300, 4096})
+        for (int threads : {1, 2, 3})
+            QCOMPARE(run(block, threads), one);
+}
+
+// CsvRange (the fast block parser) against CsvReader (the streaming reader
+// checked against RFC 4180 and Python's csv module in tst_csv) on random bytes
+// built from the characters that matter: same records, same error and place.
+void TestDataCheck::rangeParserMatchesStreamingReader() {
+    QRandomGenerator rng(4180);
+    static const QList<QByteArray> pieces = {"a",    "12", ",",       ",",       "\n",
+                                             "\r\n", "\"", "\"\"",    "\"x,y\"", "\"p\nq\"",
+                                             "\r",   " ",  "\xC3\xA9"};
+    for (int round = 0; round < 3000; ++round) {
+        QByteArray text;
+        const int n = int(rng.bounded(30));
+        for (int k = 0; k < n; ++k)
+            text += pieces.at(int(rng.bounded(int(pieces.size()))));
+        QBuffer buffer;
+        buffer.setData(text);
+        buffer.open(QIODevice::ReadOnly);
+        CsvReader reader(buffer, u"t.csv"_s, 12);
+        CsvRange range(text.constData(), text.constData() + text.size(), 12);
+        for (;;) {
+            const CsvReader::Status a = reader.next();
+            const CsvRange::Status b = range.next();
+            QCOMPARE(int(b), int(a));
+            if (a == CsvReader::Status::End)
+                break;
+            if (a == CsvReader::Status::Error) {
+                const Diagnostic& e = reader.error();
+                QCOMPARE(range.error().line + 1, qint64(e.line));
+                QCOMPARE(range.error().column, e.column);
+                QCOMPARE(range.error().message, e.message);
+                break;
+            }
+            QCOMPARE(range.recordLine() + 1, reader.recordLine());
+            QList<QByteArray> fast, streaming;
+            for (QByteArrayView f : range.fields())
+                fast.append(f.toByteArray());
+            for (QByteArrayView f : reader.fields())
+                streaming.append(f.toByteArray());
+            QCOMPARE(fast, streaming);
+        }
+    }
 }
 
 QTEST_GUILESS_MAIN(TestDataCheck)

@@ -1,0 +1,83 @@
+#pragma once
+
+#include "DataCheck.h"
+#include "RecordProgram.h"
+
+#include <array>
+
+namespace rb {
+
+// Counts of one block of records, numbered from the block's start (record 1,
+// line 0); DataCheck merges the blocks in file order, adding the records and
+// lines of the blocks before, so the result is the same for any split.
+struct ChunkTally {
+    // Per variable: RecordProgram's counters (one per CellClass, then the rest).
+    enum Counter {
+        Answered = int(CellClass::Answered),
+        Blank = int(CellClass::Blank),
+        Invalid = int(CellClass::Invalid),
+        LegitimateSkip = int(CellClass::LegitimateSkip),
+        Violation = int(CellClass::RoutingViolation),
+        Presented = RecordProgram::Presented,
+        SkipAfterMissingGate = RecordProgram::SkipAfterMissingGate,
+        BreakOffStarts = RecordProgram::BreakOffStarts,
+        Implied = RecordProgram::Implied,
+        kCounters = RecordProgram::kCounters
+    };
+    enum Problem { Violations, InvalidRecords, BreakOffs, EmptyRecords, Loops, kProblems };
+    struct Problems {
+        qint64 count = 0;
+        std::vector<qint64> firstRecords; // block-relative numbers (no --id-column)
+        QStringList firstIds;             // --id-column values
+    };
+    struct InvalidCell {
+        qint64 record = 0, line = 0;
+        int position = 0, column = -1;
+        QString value;
+    };
+    struct Error {
+        qint64 line = 0;
+        int column = 0;
+        QString message;    // parse errors
+        qint64 record = -1; // >= 0: a ragged record (message built on merge)
+        qint64 fields = 0;
+    };
+
+    std::vector<qint64> counters;    // variables x kCounters
+    std::vector<qint64> frequencies; // RecordProgram frequency slots
+    std::array<Problems, kProblems> problems;
+    std::vector<InvalidCell> invalidCells;
+    qint64 records = 0, lines = 0;
+    std::optional<Error> error;
+};
+
+// Checks the records of one block with a RecordProgram; one checker per thread.
+class ChunkChecker {
+public:
+    ChunkChecker(const CompiledRouting& routing, const RecordProgram& program,
+                 const HeaderMapping& mapping, const DataCheckOptions& options,
+                 const AnalysisOptions& analysisOptions);
+
+    // `truncated`: the block is the start of a record longer than the guard.
+    void run(const char* begin, const char* end, bool truncated, ChunkTally& tally,
+             AnalysisSink* analysis);
+
+private:
+    void count(qint64 record, qint64 line, const std::vector<QByteArrayView>& fields,
+               ChunkTally& tally) const;
+    void note(ChunkTally::Problems& problems, qint64 record,
+              const std::vector<QByteArrayView>& fields) const;
+    void writeRow(const std::vector<QByteArrayView>& fields);
+
+    const CompiledRouting& m_routing;
+    const RecordProgram& m_program;
+    const HeaderMapping& m_mapping;
+    DataCheckOptions m_options;
+    AnalysisOptions m_analysis;
+    RecordProgram::Scratch m_scratch;
+    std::vector<QByteArray> m_impliedValues; // per position
+    QByteArray m_skipCode;
+    QList<QByteArray> m_row;
+};
+
+} // namespace rb

@@ -1,0 +1,151 @@
+#include "CsvRange.h"
+
+#include <cstring>
+
+namespace rb {
+
+namespace {
+
+// Bytes that end an unquoted field or make it an error.
+struct StopTable {
+    bool stop[256] = {};
+    constexpr StopTable() {
+        stop[size_t(',')] = stop[size_t('\n')] = stop[size_t('\r')] = stop[size_t('"')] = true;
+    }
+};
+constexpr StopTable kStops;
+
+} // namespace
+
+CsvRange::CsvRange(const char* begin, const char* end, qint64 maxRecordBytes)
+    : m_begin(begin), m_pos(begin), m_end(end), m_maxRecordBytes(maxRecordBytes) {}
+
+QString CsvRange::guardMessage(qint64 maxRecordBytes) {
+    return QStringLiteral("record is longer than the line-length guard of %1 bytes")
+        .arg(maxRecordBytes);
+}
+
+CsvRange::Status CsvRange::fail(qint64 line, const char* lineStart, const char* at,
+                                const QString& message) {
+    m_error = Error{line, int(at - lineStart + 1), message};
+    m_pos = m_end;
+    return Status::Error;
+}
+
+CsvRange::Status CsvRange::next() {
+    if (!m_error.message.isEmpty())
+        return Status::Error;
+    if (m_pos == m_end)
+        return Status::End;
+    const char* const start = m_pos;
+    const char* const n = m_end;
+    const char* i = m_pos;
+    qint64 line = m_line;
+    const char* lineStart = start;
+    m_fields.clear();
+    m_scratchFields.clear();
+    m_scratch.clear();
+    for (;;) {
+        if (i < n && *i == '"') {
+            const char* const open = i;
+            const char* const openLineStart = lineStart;
+            const qint64 openLine = line;
+            const char* from = ++i;
+            bool escaped = false;
+            qsizetype scratchFrom = m_scratch.size();
+            for (;;) {
+                const void* q = i < n ? std::memchr(i, '"', size_t(n - i)) : nullptr;
+                if (!q) { // the record runs to the end: too long before it is broken
+                    if (n - start > m_maxRecordBytes)
+                        return fail(m_line, start, start, guardMessage(m_maxRecordBytes));
+                    return fail(openLine, openLineStart, open,
+                                QStringLiteral("unterminated quoted field"));
+                }
+                const char* at = static_cast<const char*>(q);
+                for (const char* k = i; k < at; ++k)
+                    if (*k == '\n') {
+                        ++line;
+                        lineStart = k + 1;
+                    }
+                i = at + 1;
+                if (i < n && *i == '"') { // a doubled quote stands for one quote
+                    if (!escaped) {
+                        escaped = true;
+                        scratchFrom = m_scratch.size();
+                    }
+                    m_scratch.append(from, at - from + 1);
+                    from = ++i;
+                    continue;
+                }
+                if (escaped) {
+                    m_scratch.append(from, at - from);
+                    m_scratchFields.push_back({qsizetype(m_fields.size()), scratchFrom});
+                    m_fields.emplace_back(from, m_scratch.size() - scratchFrom);
+                } else {
+                    m_fields.emplace_back(from, at - from);
+                }
+                break;
+            }
+        } else {
+            const char* from = i;
+            while (i < n && !kStops.stop[static_cast<unsigned char>(*i)])
+                ++i;
+            if (i < n && *i == '"')
+                return fail(line, lineStart, i,
+                            QStringLiteral("quote inside an unquoted field (quote the whole "
+                                           "field and double the quote)"));
+            m_fields.emplace_back(from, i - from);
+        }
+        const char* recordEnd = nullptr;
+        qint64 nextLine = line;
+        if (i == n) { // end of input ends the last record
+            recordEnd = i;
+        } else if (*i == ',') {
+            ++i;
+            continue;
+        } else if (*i == '\n' || (*i == '\r' && i + 1 < n && i[1] == '\n')) {
+            recordEnd = i + (*i == '\r' ? 2 : 1);
+            nextLine = line + 1;
+        } else if (*i == '\r') {
+            if (i + 1 == n && n - start > m_maxRecordBytes) // as above: too long first
+                return fail(m_line, start, start, guardMessage(m_maxRecordBytes));
+            return fail(line, lineStart, i,
+                        QStringLiteral("carriage return not followed by a line feed"));
+        } else {
+            return fail(line, lineStart, i,
+                        QStringLiteral("expected a comma or a line end after a closing quote"));
+        }
+        if (recordEnd - start > m_maxRecordBytes)
+            return fail(m_line, start, start, guardMessage(m_maxRecordBytes));
+        // Fields unescaped into the scratch buffer point into it only now that it
+        // no longer grows.
+        for (const auto& [field, offset] : m_scratchFields)
+            m_fields[size_t(field)] =
+                QByteArrayView(m_scratch.constData() + offset, m_fields[size_t(field)].size());
+        m_recordLine = m_line;
+        m_line = nextLine;
+        m_pos = recordEnd;
+        return Status::Record;
+    }
+}
+
+qsizetype lastRecordEnd(const char* begin, qsizetype size) {
+    if (!std::memchr(begin, '"', size_t(size))) {
+        for (qsizetype k = size; k > 0; --k)
+            if (begin[k - 1] == '\n')
+                return k;
+        return 0;
+    }
+    bool quoted = false;
+    qsizetype last = 0;
+    for (qsizetype k = 0; k < size; ++k) {
+        const char c = begin[k];
+        if (c == '"')
+            quoted = !quoted;
+        else if (c == '\n' && !quoted)
+            last = k + 1;
+    }
+    return last;
+}
+
+} // namespace rb

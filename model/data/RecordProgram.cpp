@@ -1,0 +1,757 @@
+#include "RecordProgram.h"
+
+#include <cmath>
+#include <cstring>
+
+namespace rb {
+
+using State = cond::CellValue::State;
+using Kind = cond::Expr::Kind;
+
+namespace {
+
+constexpr qint64 kDenseCodeSpan = 4096;
+constexpr int kSmallNumbers = 1000; // cells of 1 to 3 digits
+
+CellClass classOfMissing(MissingKind kind) {
+    switch (kind) {
+    case MissingKind::DontKnow:
+        return CellClass::DontKnow;
+    case MissingKind::Refused:
+        return CellClass::Refused;
+    case MissingKind::NotApplicable:
+        return CellClass::NotApplicable;
+    case MissingKind::None:
+        break;
+    }
+    return CellClass::Answered;
+}
+
+bool isAscii(QByteArrayView bytes) {
+    for (char c : bytes)
+        if (static_cast<unsigned char>(c) >= 0x80)
+            return false;
+    return true;
+}
+
+// QString::trimmed() on ASCII removes exactly these.
+bool isAsciiSpace(char c) {
+    return c == ' ' || (c >= '\t' && c <= '\r');
+}
+
+[[gnu::always_inline]] inline int threeWay(double a, double b) {
+    return a < b ? -1 : (a > b ? 1 : 0);
+}
+
+[[gnu::always_inline]] inline bool holds(cond::CompareOp op, int c) {
+    switch (op) {
+    case cond::CompareOp::Eq:
+        return c == 0;
+    case cond::CompareOp::Ne:
+        return c != 0;
+    case cond::CompareOp::Lt:
+        return c < 0;
+    case cond::CompareOp::Le:
+        return c <= 0;
+    case cond::CompareOp::Gt:
+        return c > 0;
+    case cond::CompareOp::Ge:
+        return c >= 0;
+    }
+    return false;
+}
+
+// A double that names a code: whole and within qint64.
+bool asCode(double v, qint64& code) {
+    if (std::floor(v) != v || !(std::abs(v) < 9.2e18))
+        return false;
+    code = qint64(v);
+    return true;
+}
+
+} // namespace
+
+const RecordProgram::CodeTable::Entry* RecordProgram::CodeTable::find(qint64 code) const {
+    if (!dense.empty()) {
+        const quint64 k = quint64(code - low);
+        return k < dense.size() && dense[size_t(k)].slot >= 0 ? &dense[size_t(k)] : nullptr;
+    }
+    const auto it = sparse.constFind(code);
+    return it == sparse.constEnd() ? nullptr : &*it;
+}
+
+void RecordProgram::CodeTable::add(qint64 code, MissingKind kind, int slot) {
+    Entry* e = nullptr;
+    if (!dense.empty()) {
+        e = &dense[size_t(code - low)];
+    } else {
+        e = &sparse[code];
+    }
+    if (e->slot < 0) {
+        e->slot = slot;
+        e->firstIsMissing = kind != MissingKind::None;
+    }
+    e->kind = kind;
+}
+
+RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping& mapping)
+    : m_skipCode(routing.instrument().settings.legitimateSkipCode.toUtf8()) {
+    m_skipCodeIsDigits = !m_skipCode.isEmpty();
+    for (char c : m_skipCode)
+        m_skipCodeIsDigits &= c >= '0' && c <= '9';
+    const int count = routing.itemCount();
+    m_items.resize(size_t(count));
+    for (int p = 0; p < count; ++p) {
+        ItemProgram& t = m_items[size_t(p)];
+        const Item& item = *routing.index().at(p).item;
+        t.type = item.type;
+        if (item.range) {
+            t.hasRange = true;
+            t.min = item.range->first.value;
+            t.max = item.range->second.value;
+        }
+        if (t.type != ItemType::Statement) {
+            t.resultIndex = m_variables++;
+            t.column = mapping.column[size_t(p)];
+            t.multiColumns = mapping.multiColumns[size_t(p)];
+            t.frequencyBase = m_frequencySlots;
+        }
+        const QList<Code>& codes = routing.codes(p);
+        qint64 low = 0, high = -1;
+        for (const Code& c : codes) {
+            low = high < low ? c.code : qMin(low, c.code);
+            high = qMax(high < low ? c.code : high, c.code);
+        }
+        if (!codes.isEmpty() && high - low < kDenseCodeSpan) {
+            t.codes.low = low;
+            t.codes.dense.resize(size_t(high - low + 1));
+        }
+        int distinct = 0;
+        for (const Code& c : codes) {
+            const bool fresh = t.codes.find(c.code) == nullptr;
+            t.codes.add(c.code, c.missing, fresh ? distinct : -1);
+            distinct += fresh ? 1 : 0;
+            t.multiCodes.push_back(c.code);
+        }
+        if (t.type != ItemType::Statement)
+            m_frequencySlots += distinct;
+
+        const CompiledRouting::CompiledItem& compiled = routing.item(p);
+        for (const cond::ExprPtr& filter : compiled.filters)
+            t.filters.push_back(compile(*filter, routing));
+        for (const CompiledRouting::CompiledRule& rule : compiled.rules)
+            if (rule.usable)
+                t.rules.push_back(
+                    {rule.condition ? compile(*rule.condition, routing) : -1, rule.target});
+        // The reference classes items in questionnaire order: a gate at or after the
+        // item is not classed yet then and never marks it, so only earlier ones count.
+        for (int g : skipGates(routing, p))
+            if (g < p)
+                t.gates.push_back(g);
+        for (const Rule& rule : t.rules)
+            m_forwardOnly &= rule.target > p;
+        if (item.whenSkipped && t.type != ItemType::Statement) {
+            if (!item.whenSkipped->condition) {
+                t.hasImplied = true;
+            } else if (const cond::ExprPtr e =
+                           routing.compileCondition(*item.whenSkipped->condition)) {
+                t.hasImplied = true; // an `if` that does not compile never fills
+                t.impliedIf = compile(*e, routing);
+            }
+        }
+        buildSmallTable(t);
+    }
+    buildHot();
+    for (int p = 0; p < count; ++p)
+        if (m_items[size_t(p)].hasImplied)
+            m_impliedItems.push_back(p);
+}
+
+void RecordProgram::buildHot() {
+    m_hot.resize(m_items.size());
+    for (size_t p = 0; p < m_items.size(); ++p) {
+        const ItemProgram& t = m_items[p];
+        Hot& h = m_hot[p];
+        h.type = t.type;
+        h.hasImplied = t.hasImplied;
+        h.resultIndex = t.resultIndex;
+        h.column = t.column;
+        h.impliedIf = t.impliedIf;
+        h.small = t.small;
+        h.frequencyBase = t.frequencyBase;
+        h.filtersFrom = int(m_filters.size());
+        m_filters.insert(m_filters.end(), t.filters.begin(), t.filters.end());
+        h.filtersTo = int(m_filters.size());
+        h.rulesFrom = int(m_rules.size());
+        m_rules.insert(m_rules.end(), t.rules.begin(), t.rules.end());
+        h.rulesTo = int(m_rules.size());
+        h.gatesFrom = int(m_gates.size());
+        m_gates.insert(m_gates.end(), t.gates.begin(), t.gates.end());
+        h.gatesTo = int(m_gates.size());
+    }
+}
+
+// The table is filled by decodeNumber itself, so both ways agree by construction.
+void RecordProgram::buildSmallTable(ItemProgram& t) {
+    if (t.type != ItemType::Single && t.type != ItemType::Integer && t.type != ItemType::Decimal)
+        return;
+    std::vector<Small> table(kSmallNumbers);
+    Scratch s;
+    for (int v = 0; v < kSmallNumbers; ++v) {
+        const QByteArray text = QByteArray::number(v);
+        Cell cell;
+        s.codes.clear();
+        s.codeSlots.clear();
+        decodeNumber(t, text, cell, s);
+        table[size_t(v)] = {cell.presentedClass, cell.skipIsLegitimate,
+                            cell.codesCount ? s.codeSlots[0] - t.frequencyBase : -1};
+    }
+    for (const auto& shared : m_smallTables)
+        if (*shared == table) {
+            t.small = shared->data();
+            return;
+        }
+    m_smallTables.push_back(std::make_unique<std::vector<Small>>(std::move(table)));
+    t.small = m_smallTables.back()->data();
+}
+
+// Cells of 1 to 3 digits by table; false for anything else.
+bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out, Scratch& s) const {
+    const qsizetype n = v.size();
+    if (!t.small || n > 3)
+        return false;
+    int value = 0;
+    for (char c : v) {
+        if (c < '0' || c > '9')
+            return false;
+        value = value * 10 + (c - '0');
+    }
+    if (m_skipCodeIsDigits && v == QByteArrayView(m_skipCode))
+        return false;
+    const Small& e = t.small[value];
+    out.state = State::Number;
+    out.number = value;
+    out.presentedClass = e.presentedClass;
+    out.skipIsLegitimate = e.skipIsLegitimate;
+    if (e.slot >= 0) {
+        out.codesFrom = int(s.codes.size());
+        out.codesCount = 1;
+        s.codes.push_back(value);
+        s.codeSlots.push_back(t.frequencyBase + e.slot);
+    }
+    return true;
+}
+
+RecordProgram::Literal RecordProgram::literal(const cond::Value& v) {
+    Literal l;
+    l.isNumber = v.isNumber();
+    l.number = v.number;
+    l.text = v.text;
+    const QByteArray utf8 = v.text.toUtf8();
+    l.isAscii = isAscii(utf8);
+    if (l.isAscii)
+        l.ascii = utf8;
+    return l;
+}
+
+int RecordProgram::compile(const cond::Expr& expr, const CompiledRouting& routing) {
+    Node n;
+    n.kind = expr.kind;
+    n.op = expr.op;
+    n.negated = expr.negated;
+    n.isNumber = expr.value.isNumber();
+    n.number = expr.value.number;
+    m_literals.push_back(literal(expr.value));
+    n.literal = int(m_literals.size()) - 1;
+    if (!expr.name.isEmpty())
+        n.position = routing.positionOf(expr.name); // unknown: -1, never presented
+    std::vector<int> children;
+    for (const cond::ExprPtr& child : expr.children)
+        children.push_back(compile(*child, routing));
+    n.first = int(m_children.size());
+    n.count = int(children.size());
+    m_children.insert(m_children.end(), children.begin(), children.end());
+    if (expr.kind == Kind::In) {
+        n.first = int(m_elements.size());
+        n.count = int(expr.list.size());
+        for (const cond::ListElement& e : expr.list)
+            m_elements.push_back(
+                {literal(e.low), e.high ? literal(*e.high) : Literal{}, e.high.has_value()});
+    }
+    m_nodes.push_back(n);
+    return int(m_nodes.size()) - 1;
+}
+
+void RecordProgram::prepare(Scratch& s) const {
+    const size_t count = m_items.size();
+    s.cells.assign(count, Cell{});
+    s.live.assign(count, 0);
+    s.presented.assign(count, 0);
+    s.unknownSkip.assign(count, 0);
+    s.implied.assign(count, 0);
+    s.classes.assign(count, CellClass::Answered);
+    s.seen.assign(count, 0);
+    s.path.reserve(count * 4);
+}
+
+bool RecordProgram::isSkipValue(const ItemProgram& t, QByteArrayView cell) const {
+    if (cell.isEmpty() || (!m_skipCode.isEmpty() && cell == QByteArrayView(m_skipCode)))
+        return true;
+    double v = 0;
+    qint64 code = 0;
+    if (!parseCellNumber(cell, v) || !asCode(v, code))
+        return false;
+    const CodeTable::Entry* e = t.codes.find(code);
+    return e && e->kind == MissingKind::NotApplicable;
+}
+
+void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out,
+                                 Scratch& s) const {
+    double v = 0;
+    if (!parseCellNumber(cell, v)) { // compared as it stands: text never equals a number
+        out.state = State::Text;
+        out.text = cell;
+        out.presentedClass = CellClass::Invalid;
+        out.skipIsLegitimate = !m_skipCode.isEmpty() && cell == QByteArrayView(m_skipCode);
+        return;
+    }
+    out.state = State::Number;
+    out.number = v;
+    qint64 code = 0;
+    const CodeTable::Entry* e = asCode(v, code) ? t.codes.find(code) : nullptr;
+    out.skipIsLegitimate = (e && e->kind == MissingKind::NotApplicable) ||
+                           (!m_skipCode.isEmpty() && cell == QByteArrayView(m_skipCode));
+    const bool whole = std::floor(v) == v && std::abs(v) < 9e15;
+    if (e && whole) {
+        out.presentedClass = classOfMissing(e->kind);
+        out.codesFrom = int(s.codes.size());
+        out.codesCount = 1;
+        s.codes.push_back(code);
+        s.codeSlots.push_back(t.frequencyBase + e->slot);
+        return;
+    }
+    bool ok = t.type != ItemType::Single && (t.type == ItemType::Decimal || whole);
+    if (ok && t.hasRange)
+        ok = v >= t.min && v <= t.max;
+    out.presentedClass = ok ? CellClass::Answered : CellClass::Invalid;
+}
+
+void RecordProgram::decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields,
+                                Cell& out, Scratch& s) const {
+    bool invalid = false, anyValue = false, anyAnswer = false;
+    out.codesFrom = int(s.codes.size());
+    for (size_t k = 0; k < t.multiColumns.size(); ++k) {
+        if (t.multiColumns[k] < 0)
+            continue;
+        const QByteArrayView cell = fields[size_t(t.multiColumns[k])];
+        if (cell.isEmpty() || cell == "0")
+            continue;
+        if (!m_skipCode.isEmpty() && cell == QByteArrayView(m_skipCode))
+            continue;
+        anyValue = true;
+        if (cell != "1") {
+            invalid = true;
+            continue;
+        }
+        const qint64 code = t.multiCodes[k];
+        const CodeTable::Entry* e = t.codes.find(code);
+        s.codes.push_back(code);
+        s.codeSlots.push_back(t.frequencyBase + e->slot);
+        if (e->kind == MissingKind::None)
+            anyAnswer = true;
+    }
+    out.codesCount = int(s.codes.size()) - out.codesFrom;
+    out.skipIsLegitimate = !anyValue;
+    out.state = out.codesCount ? State::Codes : State::Blank;
+    if (invalid)
+        out.presentedClass = CellClass::Invalid;
+    else if (!out.codesCount)
+        out.presentedClass = CellClass::Blank;
+    else if (anyAnswer)
+        out.presentedClass = CellClass::Answered;
+    else
+        out.presentedClass = classOfMissing(t.codes.find(s.codes[size_t(out.codesFrom)])->kind);
+}
+
+void RecordProgram::decode(size_t p, const std::vector<QByteArrayView>& fields, Cell& cell,
+                           Scratch& s) const {
+    const Hot& h = m_hot[p];
+    cell = Cell{};
+    switch (h.type) {
+    case ItemType::Statement:
+        cell.presentedClass = CellClass::Answered;
+        return;
+    case ItemType::Multi:
+        decodeMulti(m_items[p], fields, cell, s);
+        return;
+    default:
+        break;
+    }
+    const QByteArrayView v = h.column < 0 ? QByteArrayView() : fields[size_t(h.column)];
+    if (v.isEmpty())
+        return; // blank: presented blank, skipped legitimately
+    if (h.type == ItemType::Text || h.type == ItemType::Date) {
+        cell.state = State::Text;
+        cell.text = v;
+        cell.presentedClass =
+            h.type == ItemType::Text || isIsoDate(v) ? CellClass::Answered : CellClass::Invalid;
+        cell.skipIsLegitimate = isSkipValue(m_items[p], v);
+        return;
+    }
+    if (!decodeSmall(h, v, cell, s))
+        decodeNumber(m_items[p], v, cell, s);
+}
+
+bool RecordProgram::compare(const Cell* cell, cond::CompareOp op, const Literal& v) const {
+    if (op == cond::CompareOp::Ne) // `x <> v` is `not (x = v)`
+        return !compare(cell, cond::CompareOp::Eq, v);
+    if (!cell)
+        return false;
+    if (cell->state == State::Number && v.isNumber)
+        return holds(op, threeWay(cell->number, v.number));
+    if (cell->state != State::Text || v.isNumber)
+        return false;
+    int c = 0;
+    if (v.isAscii && isAscii(cell->text)) { // ASCII bytes order as UTF-16 code units do
+        const size_t common = size_t(qMin(cell->text.size(), v.ascii.size()));
+        c = std::memcmp(cell->text.data(), v.ascii.constData(), common);
+        if (c == 0)
+            c = cell->text.size() < v.ascii.size() ? -1 : (cell->text.size() > v.ascii.size());
+    } else {
+        c = QString::fromUtf8(cell->text).compare(v.text);
+    }
+    return holds(op, c < 0 ? -1 : (c > 0 ? 1 : 0));
+}
+
+bool RecordProgram::answered(const Cell* cell, int position, const Scratch& s) const {
+    if (!cell || cell->state == State::Blank)
+        return false;
+    if (cell->state == State::Text) {
+        if (!isAscii(cell->text))
+            return !QString::fromUtf8(cell->text).trimmed().isEmpty();
+        for (char c : cell->text)
+            if (!isAsciiSpace(c))
+                return true;
+        return false;
+    }
+    const CodeTable& codes = m_items[size_t(position)].codes;
+    auto missing = [&](qint64 code) {
+        const CodeTable::Entry* e = codes.find(code);
+        return e && e->firstIsMissing;
+    };
+    if (cell->state == State::Number) {
+        qint64 code = 0;
+        return !(std::isfinite(cell->number) && asCode(cell->number, code) && missing(code));
+    }
+    for (int k = 0; k < cell->codesCount; ++k)
+        if (!missing(s.codes[size_t(cell->codesFrom + k)]))
+            return true;
+    return false;
+}
+
+bool RecordProgram::evaluate(int index, const Scratch& s) const {
+    const Node& n = m_nodes[size_t(index)];
+    switch (n.kind) {
+    case Kind::Or:
+        for (int k = 0; k < n.count; ++k)
+            if (evaluate(m_children[size_t(n.first + k)], s))
+                return true;
+        return false;
+    case Kind::And:
+        for (int k = 0; k < n.count; ++k)
+            if (!evaluate(m_children[size_t(n.first + k)], s))
+                return false;
+        return true;
+    case Kind::Not:
+        return !evaluate(m_children[size_t(n.first)], s);
+    case Kind::Compare: {
+        const Cell* cell = valueAt(n.position, s);
+        if (cell && cell->state == State::Number && n.isNumber) // the common case
+            return holds(n.op, threeWay(cell->number, n.number));
+        return compare(cell, n.op, m_literals[size_t(n.literal)]);
+    }
+    case Kind::In: {
+        const Cell* cell = valueAt(n.position, s);
+        bool in = false;
+        for (int k = 0; k < n.count && !in; ++k) {
+            const Element& e = m_elements[size_t(n.first + k)];
+            in = e.hasHigh ? compare(cell, cond::CompareOp::Ge, e.low) &&
+                                 compare(cell, cond::CompareOp::Le, e.high)
+                           : compare(cell, cond::CompareOp::Eq, e.low);
+        }
+        return in != n.negated;
+    }
+    case Kind::Has: {
+        const Cell* cell = valueAt(n.position, s);
+        if (!cell || cell->state != State::Codes || !n.isNumber)
+            return false;
+        for (int k = 0; k < cell->codesCount; ++k)
+            if (double(s.codes[size_t(cell->codesFrom + k)]) == n.number)
+                return true;
+        return false;
+    }
+    case Kind::Asked:
+        return valueAt(n.position, s) != nullptr;
+    case Kind::Answered:
+        return answered(valueAt(n.position, s), n.position, s);
+    case Kind::True:
+        return true;
+    case Kind::False:
+        return false;
+    }
+    return false;
+}
+
+// The reference route (Simulator.h), over the value slots.
+void RecordProgram::route(Scratch& s) const {
+    const int count = itemCount();
+    std::fill(s.live.begin(), s.live.end(), 0);
+    std::fill(s.presented.begin(), s.presented.end(), 0);
+    s.path.clear();
+    s.loop = false;
+    const qint64 guard = 4 * qint64(count);
+    qint64 steps = 0;
+    int position = 0;
+    while (position < count) {
+        if (++steps > guard) {
+            s.loop = true;
+            break;
+        }
+        const Hot& t = m_hot[size_t(position)];
+        bool pass = true;
+        for (int f = t.filtersFrom; f < t.filtersTo && pass; ++f)
+            pass = evaluate(m_filters[size_t(f)], s);
+        if (!pass) {
+            s.live[size_t(position)] = 0; // filtered: empty
+            ++position;
+            continue;
+        }
+        s.live[size_t(position)] = 1;
+        s.presented[size_t(position)] = 1;
+        s.path.push_back(position);
+        int next = position + 1;
+        for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
+            const Rule& rule = m_rules[size_t(r)];
+            if (rule.condition < 0 || evaluate(rule.condition, s)) {
+                next = rule.target;
+                break;
+            }
+        }
+        position = next;
+    }
+}
+
+// DESIGN.md's table, item by item in questionnaire order (a gate later in the
+// order is read before it is classed, as the reference does).
+void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
+    std::fill(s.classes.begin(), s.classes.end(), CellClass::Answered);
+    std::fill(s.unknownSkip.begin(), s.unknownSkip.end(), 0);
+    std::fill(s.implied.begin(), s.implied.end(), 0);
+    s.anyValue = s.anyViolation = s.anyInvalid = false;
+    for (int p = 0; p < itemCount(); ++p) {
+        const Hot& t = m_hot[size_t(p)];
+        if (t.resultIndex < 0)
+            continue;
+        qint64* counters = tally ? tally->counters + size_t(t.resultIndex) * kCounters : nullptr;
+        const Cell& cell = s.cells[size_t(p)];
+        CellClass& c = s.classes[size_t(p)];
+        if (s.presented[size_t(p)]) {
+            c = cell.presentedClass;
+            s.anyValue |= c != CellClass::Blank;
+            s.anyInvalid |= c == CellClass::Invalid;
+            if (counters) {
+                ++counters[int(c)];
+                ++counters[Presented];
+                for (int k = 0; k < cell.codesCount; ++k)
+                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+            }
+            continue;
+        }
+        if (!cell.skipIsLegitimate) {
+            c = CellClass::RoutingViolation;
+            s.anyViolation = true;
+            if (counters)
+                ++counters[int(c)];
+            continue;
+        }
+        c = CellClass::LegitimateSkip;
+        for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
+            const int g = m_gates[size_t(k)];
+            if (s.presented[size_t(g)] ? isNonresponse(s.classes[size_t(g)])
+                                       : bool(s.unknownSkip[size_t(g)])) {
+                s.unknownSkip[size_t(p)] = 1;
+                break;
+            }
+        }
+        if (t.hasImplied && (t.impliedIf < 0 || evaluate(t.impliedIf, s)))
+            s.implied[size_t(p)] = 1;
+        if (counters) {
+            ++counters[int(c)];
+            counters[SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
+            counters[Implied] += s.implied[size_t(p)];
+        }
+    }
+}
+
+// Break-off: the presented items are blank from some item to the end (at least
+// two of them, so that one unanswered last question is not a break-off).
+void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
+    if (++s.stamp == 0) { // wrapped: forget old stamps
+        std::fill(s.seen.begin(), s.seen.end(), 0);
+        s.stamp = 1;
+    }
+    int runStart = -1, runLength = 0;
+    for (int p : s.path) {
+        if (m_hot[size_t(p)].resultIndex < 0 || s.seen[size_t(p)] == s.stamp)
+            continue;
+        s.seen[size_t(p)] = s.stamp;
+        if (s.classes[size_t(p)] == CellClass::Blank) {
+            if (runLength++ == 0)
+                runStart = p;
+        } else {
+            runLength = 0;
+        }
+    }
+    s.breakOffStart = runLength >= 2 ? runStart : -1;
+    if (tally && s.breakOffStart >= 0 && s.anyValue) // an empty record is no break-off
+        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
+}
+
+void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch& s,
+                             const Tally* tally) const {
+    s.codes.clear();
+    s.codeSlots.clear();
+    if (m_forwardOnly) {
+        classifyForward(fields, s, tally);
+        return;
+    }
+    for (size_t p = 0; p < m_items.size(); ++p)
+        decode(p, fields, s.cells[p], s);
+    route(s);
+    classifyCells(s, tally);
+    findBreakOff(s, tally);
+}
+
+// The same route and classes in one pass, for routing whose rules all jump
+// forward: every position is then reached, filtered or jumped over exactly
+// once, in order, so an item's class is final when the route passes it (its
+// gates are earlier items). Cells are decoded only when presented, or when a
+// skipped cell is not blank; implied values wait for the route's final values.
+void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
+                                    const Tally* tally) const {
+    const int count = itemCount();
+    std::fill(s.live.begin(), s.live.end(), 0);
+    s.path.clear();
+    s.loop = false;
+    s.anyValue = s.anyViolation = s.anyInvalid = false;
+    int next = 0, runStart = -1, runLength = 0;
+    for (int p = 0; p < count; ++p) {
+        const Hot& t = m_hot[size_t(p)];
+        bool reached = p >= next;
+        if (reached)
+            for (int f = t.filtersFrom; f < t.filtersTo && reached; ++f)
+                reached = test(m_filters[size_t(f)], s);
+        qint64* counters = tally && t.resultIndex >= 0
+                               ? tally->counters + size_t(t.resultIndex) * kCounters
+                               : nullptr;
+        if (reached) { // presented
+            Cell& cell = s.cells[size_t(p)];
+            decode(size_t(p), fields, cell, s);
+            s.live[size_t(p)] = 1;
+            s.presented[size_t(p)] = 1;
+            s.path.push_back(p);
+            next = p + 1;
+            for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
+                const Rule& rule = m_rules[size_t(r)];
+                if (rule.condition < 0 || test(rule.condition, s)) {
+                    next = rule.target;
+                    break;
+                }
+            }
+            if (t.resultIndex < 0)
+                continue;
+            const CellClass c = cell.presentedClass;
+            s.classes[size_t(p)] = c;
+            s.unknownSkip[size_t(p)] = 0;
+            s.implied[size_t(p)] = 0;
+            s.anyValue |= c != CellClass::Blank;
+            s.anyInvalid |= c == CellClass::Invalid;
+            if (c == CellClass::Blank) {
+                if (runLength++ == 0)
+                    runStart = p;
+            } else {
+                runLength = 0;
+            }
+            if (counters) {
+                ++counters[int(c)];
+                ++counters[Presented];
+                for (int k = 0; k < cell.codesCount; ++k)
+                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+            }
+            continue;
+        }
+        s.presented[size_t(p)] = 0; // filtered or jumped over
+        if (t.resultIndex < 0)
+            continue;
+        s.implied[size_t(p)] = 0;
+        s.unknownSkip[size_t(p)] = 0;
+        bool legitimate = true;
+        if (t.type == ItemType::Multi || (t.column >= 0 && !fields[size_t(t.column)].isEmpty())) {
+            Cell cell;
+            decode(size_t(p), fields, cell, s);
+            legitimate = cell.skipIsLegitimate;
+        }
+        if (!legitimate) {
+            s.classes[size_t(p)] = CellClass::RoutingViolation;
+            s.anyViolation = true;
+            if (counters)
+                ++counters[int(CellClass::RoutingViolation)];
+            continue;
+        }
+        s.classes[size_t(p)] = CellClass::LegitimateSkip;
+        for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
+            const int g = m_gates[size_t(k)];
+            if (s.presented[size_t(g)] ? isNonresponse(s.classes[size_t(g)])
+                                       : bool(s.unknownSkip[size_t(g)])) {
+                s.unknownSkip[size_t(p)] = 1;
+                break;
+            }
+        }
+        if (counters) {
+            ++counters[int(CellClass::LegitimateSkip)];
+            counters[SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
+        }
+    }
+    for (int p : m_impliedItems) { // over the route's final values
+        const Hot& t = m_hot[size_t(p)];
+        if (s.classes[size_t(p)] == CellClass::LegitimateSkip &&
+            (t.impliedIf < 0 || evaluate(t.impliedIf, s))) {
+            s.implied[size_t(p)] = 1;
+            if (tally)
+                ++tally->counters[size_t(t.resultIndex) * kCounters + Implied];
+        }
+    }
+    s.breakOffStart = runLength >= 2 ? runStart : -1;
+    if (tally && s.breakOffStart >= 0 && s.anyValue)
+        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
+}
+
+RecordClassification RecordProgram::toClassification(const Scratch& s) const {
+    RecordClassification r;
+    r.path = QList<int>(s.path.begin(), s.path.end());
+    r.loop = s.loop;
+    r.classes = s.classes;
+    r.presented.assign(s.presented.begin(), s.presented.end());
+    r.unknownSkip.assign(s.unknownSkip.begin(), s.unknownSkip.end());
+    r.implied.assign(s.implied.begin(), s.implied.end());
+    r.counted.resize(m_items.size());
+    for (size_t p = 0; p < m_items.size(); ++p)
+        if (s.presented[p] && m_items[p].resultIndex >= 0)
+            for (int k = 0; k < s.cells[p].codesCount; ++k)
+                r.counted[p].append(s.codes[size_t(s.cells[p].codesFrom + k)]);
+    r.breakOffStart = s.breakOffStart;
+    r.anyValue = s.anyValue;
+    return r;
+}
+
+} // namespace rb

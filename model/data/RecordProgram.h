@@ -1,0 +1,218 @@
+#pragma once
+
+#include "HeaderMapping.h"
+#include "RecordClassification.h"
+
+#include <QHash>
+
+#include <cstdint>
+#include <memory>
+#include <vector>
+
+namespace rb {
+
+// The data check's per-record work compiled into flat tables, built once per
+// run: a cell decoder per item (code lookups by array, numbers parsed from the
+// bytes, no QString per cell) and the routing's conditions as an array of nodes
+// over per-position value slots. classify() runs the reference route of
+// DESIGN.md and the classification of RecordChecker without allocating once the
+// scratch has grown; tst_datacheck proves both agree on random instruments and
+// records. Thread-safe: one Scratch per thread, the program is read-only.
+class RecordProgram {
+public:
+    RecordProgram(const CompiledRouting& routing, const HeaderMapping& mapping);
+    RecordProgram(const RecordProgram&) = delete; // items point into its shared tables
+    RecordProgram& operator=(const RecordProgram&) = delete;
+
+    // A decoded cell: what conditions read and how the cell is classed.
+    struct Cell {
+        cond::CellValue::State state = cond::CellValue::State::Blank;
+        CellClass presentedClass = CellClass::Blank; // when the item is presented
+        bool skipIsLegitimate = true;                // when it is not
+        double number = 0;
+        QByteArrayView text;
+        int codesFrom = 0, codesCount = 0; // counted codes in Scratch::codes
+    };
+    // Per-thread working memory, reused for every record.
+    struct Scratch {
+        std::vector<Cell> cells;
+        std::vector<qint64> codes;  // counted codes of all cells
+        std::vector<int> codeSlots; // their frequency slot (-1: not a listed code)
+        std::vector<uint8_t> live;  // the route's current value is the cell (else not presented)
+        std::vector<uint8_t> presented, unknownSkip, implied;
+        std::vector<CellClass> classes;
+        std::vector<int> path;
+        std::vector<uint32_t> seen;
+        uint32_t stamp = 0;
+        bool loop = false, anyValue = false, anyViolation = false, anyInvalid = false;
+        int breakOffStart = -1;
+    };
+
+    // Per-variable counters, kCounters each: one per CellClass (by its value),
+    // then these. Frequencies: one per frequency slot.
+    enum Counter { Presented = 8, SkipAfterMissingGate, BreakOffStarts, Implied, kCounters };
+    struct Tally {
+        qint64* counters = nullptr;
+        qint64* frequencies = nullptr;
+    };
+
+    void prepare(Scratch& s) const;
+    // Classifies one record; with a tally, also counts it there (in the same pass).
+    void classify(const std::vector<QByteArrayView>& fields, Scratch& s,
+                  const Tally* tally = nullptr) const;
+    RecordClassification toClassification(const Scratch& s) const; // for tests
+
+    int itemCount() const { return int(m_items.size()); }
+    bool hasVariable(int p) const { return m_items[size_t(p)].resultIndex >= 0; }
+    int resultIndex(int p) const { return m_items[size_t(p)].resultIndex; }
+    // First frequency slot of the item (its listed codes follow) and the total.
+    int frequencyBase(int p) const { return m_items[size_t(p)].frequencyBase; }
+    int frequencySlots() const { return m_frequencySlots; }
+    int variables() const { return m_variables; }
+    bool forwardOnly() const { return m_forwardOnly; } // classified in one pass
+
+private:
+    // Codes of one item by value: an array over [low, low + size) when the codes
+    // are close together, a hash otherwise.
+    struct CodeTable {
+        struct Entry {
+            MissingKind kind = MissingKind::None; // the last listing wins (as in CellInterpreter)
+            bool firstIsMissing = false;          // the first listing (as CompiledRouting)
+            int slot = -1;                        // frequency slot, -1: not a code
+        };
+        qint64 low = 0;
+        std::vector<Entry> dense;
+        QHash<qint64, Entry> sparse;
+        const Entry* find(qint64 code) const;
+        void add(qint64 code, MissingKind kind, int slot);
+    };
+    struct Literal {
+        bool isNumber = true;
+        double number = 0;
+        QString text;
+        QByteArray ascii; // the text when it is plain ASCII (compared as bytes)
+        bool isAscii = false;
+    };
+    struct Node {
+        cond::Expr::Kind kind = cond::Expr::Kind::True;
+        cond::CompareOp op = cond::CompareOp::Eq;
+        bool negated = false;
+        int position = -1;        // atoms: the item read, -1 unknown (not presented)
+        int first = 0, count = 0; // children in m_children, or list elements in m_elements
+        bool isNumber = true;     // the literal (Compare, Has): a number...
+        double number = 0;
+        int literal = -1; // ...or text, in m_literals
+    };
+    struct Element {
+        Literal low, high;
+        bool hasHigh = false;
+    };
+    struct Rule {
+        int condition = -1; // node, -1: always fires
+        int target = 0;
+    };
+    // Cells "0".."999" decoded once, in a table shared by the items that read
+    // them alike (most items of a big instrument), so it stays in the cache.
+    struct Small {
+        CellClass presentedClass = CellClass::Invalid;
+        bool skipIsLegitimate = false;
+        int slot = -1; // frequency slot (from the item's first) when the number is a code
+        bool operator==(const Small&) const = default;
+    };
+    struct ItemProgram {
+        ItemType type = ItemType::Statement;
+        int resultIndex = -1;
+        int column = -1;
+        std::vector<int> multiColumns;
+        std::vector<qint64> multiCodes; // code of each multi column
+        CodeTable codes;
+        bool hasRange = false;
+        double min = 0, max = 0;
+        std::vector<int> filters; // nodes
+        std::vector<Rule> rules;  // usable rules only, in order
+        std::vector<int> gates;
+        bool hasImplied = false;
+        int impliedIf = -1; // node, -1: whenever skipped
+        int frequencyBase = 0;
+        const struct Small* small = nullptr; // kSmallNumbers entries, shared
+    };
+
+    // What the per-record loops read of an item, packed apart from the rest so
+    // that a pass over 300 items stays in the first-level cache.
+    struct Hot {
+        ItemType type = ItemType::Statement;
+        bool hasImplied = false;
+        int resultIndex = -1, column = -1, impliedIf = -1, frequencyBase = 0;
+        const Small* small = nullptr;
+        int filtersFrom = 0, filtersTo = 0; // in m_filters
+        int rulesFrom = 0, rulesTo = 0;     // in m_rules
+        int gatesFrom = 0, gatesTo = 0;     // in m_gates
+    };
+    void buildHot();
+
+    int compile(const cond::Expr& expr, const CompiledRouting& routing);
+    static Literal literal(const cond::Value& v);
+    [[gnu::always_inline]] inline void decode(size_t position,
+                                              const std::vector<QByteArrayView>& fields, Cell& cell,
+                                              Scratch& s) const;
+    void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out, Scratch& s) const;
+    void decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& out,
+                     Scratch& s) const;
+    bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
+    void buildSmallTable(ItemProgram& t);
+    [[gnu::always_inline]] inline bool decodeSmall(const struct Hot& t, QByteArrayView v, Cell& out,
+                                                   Scratch& s) const;
+    void route(Scratch& s) const;
+    void classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
+                         const Tally* tally) const;
+    void classifyCells(Scratch& s, const Tally* tally) const;
+    void findBreakOff(Scratch& s, const Tally* tally) const;
+    bool evaluate(int node, const Scratch& s) const;
+    // evaluate() with its commonest case (an item against a number) inline.
+    [[gnu::always_inline]] bool test(int node, const Scratch& s) const {
+        const Node& n = m_nodes[size_t(node)];
+        if (n.kind == cond::Expr::Kind::Compare && n.isNumber && n.position >= 0 &&
+            s.live[size_t(n.position)] &&
+            s.cells[size_t(n.position)].state == cond::CellValue::State::Number) {
+            const double a = s.cells[size_t(n.position)].number, b = n.number;
+            switch (n.op) {
+            case cond::CompareOp::Eq:
+                return a == b;
+            case cond::CompareOp::Ne:
+                return a != b;
+            case cond::CompareOp::Lt:
+                return a < b;
+            case cond::CompareOp::Le:
+                return a <= b;
+            case cond::CompareOp::Gt:
+                return a > b;
+            case cond::CompareOp::Ge:
+                return a >= b;
+            }
+        }
+        return evaluate(node, s);
+    }
+    bool compare(const Cell* cell, cond::CompareOp op, const Literal& v) const;
+    bool answered(const Cell* cell, int position, const Scratch& s) const;
+    const Cell* valueAt(int position, const Scratch& s) const {
+        return position >= 0 && s.live[size_t(position)] ? &s.cells[size_t(position)] : nullptr;
+    }
+
+    std::vector<ItemProgram> m_items;
+    std::vector<Hot> m_hot;
+    std::vector<int> m_filters, m_gates;
+    std::vector<Rule> m_rules;
+    std::vector<Node> m_nodes;
+    std::vector<Literal> m_literals;
+    std::vector<int> m_children;
+    std::vector<Element> m_elements;
+    std::vector<std::unique_ptr<std::vector<Small>>> m_smallTables;
+    QByteArray m_skipCode;
+    bool m_skipCodeIsDigits = false; // then a small cell may be the skip code itself
+    std::vector<int> m_impliedItems; // positions with when_skipped
+    bool m_forwardOnly = true;       // every usable rule jumps forward: no loop possible
+    int m_frequencySlots = 0;
+    int m_variables = 0;
+};
+
+} // namespace rb
