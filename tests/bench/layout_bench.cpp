@@ -198,6 +198,12 @@ int main(int argc, char** argv) {
     bool runDot = true;
     if (args.removeAll(QStringLiteral("--no-dot")) > 0)
         runDot = false;
+    // --keep-dot DIR: leave the DOT files there (to try Graphviz options by hand).
+    QString keepDir;
+    if (const qsizetype k = args.indexOf(QStringLiteral("--keep-dot")); k >= 0 && k + 1 < args.size()) {
+        keepDir = args.at(k + 1);
+        args.remove(k, 2);
+    }
     QList<int> sizes;
     for (const QString& a : args)
         sizes.append(a.toInt());
@@ -229,12 +235,14 @@ int main(int argc, char** argv) {
             << qSetFieldWidth(10) << QString::number(best, 'f', 4) << qSetFieldWidth(10)
             << QString::number(bestCpu, 'f', 4) << qSetFieldWidth(16) << ours << qSetFieldWidth(12)
             << QStringLiteral("%1/%2").arg(laidOut.leftLanes).arg(laidOut.rightLanes);
-        if (runDot) {
-            const QString dotFile = dir.filePath(QStringLiteral("g%1.dot").arg(n));
+        const QString dotFile =
+            (keepDir.isEmpty() ? dir.path() : keepDir) + QStringLiteral("/g%1.dot").arg(n);
+        if (runDot || !keepDir.isEmpty()) {
             QFile f(dotFile);
             if (!f.open(QIODevice::WriteOnly) || f.write(exportDot(routing)) < 0)
                 return 2;
-            f.close();
+        }
+        if (runDot) {
             QProcess dot;
             QElapsedTimer timer;
             timer.start();
