@@ -52,7 +52,8 @@ void writeNodes(const CompiledRouting& routing, QTextStream& out) {
         }
         for (const std::optional<QString>& filter : {e.module->askIf, e.item->askIf})
             if (filter) {
-                label += QStringLiteral("\nask if: ") + layout::shortCondition(*filter, kLabelChars);
+                label +=
+                    QStringLiteral("\nask if: ") + layout::shortCondition(*filter, kLabelChars);
                 tooltip += QStringLiteral("\nask if: ") + *filter;
             }
         out << "  " << nodeId(routing, e.position) << " [label=" << dotQuoted(label)

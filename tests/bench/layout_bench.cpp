@@ -200,7 +200,8 @@ int main(int argc, char** argv) {
         runDot = false;
     // --keep-dot DIR: leave the DOT files there (to try Graphviz options by hand).
     QString keepDir;
-    if (const qsizetype k = args.indexOf(QStringLiteral("--keep-dot")); k >= 0 && k + 1 < args.size()) {
+    if (const qsizetype k = args.indexOf(QStringLiteral("--keep-dot"));
+        k >= 0 && k + 1 < args.size()) {
         keepDir = args.at(k + 1);
         args.remove(k, 2);
     }
