@@ -46,7 +46,7 @@ double childrenCpuSeconds() {
            double(usage.ru_utime.tv_usec + usage.ru_stime.tv_usec) / 1e6;
 }
 
-Instrument generate(int items, quint32 seed) {
+Instrument generate(int items, quint32 seed, int maxSkip) {
     QRandomGenerator random(seed);
     Instrument in;
     in.title = QStringLiteral("Generated %1").arg(items);
@@ -64,7 +64,7 @@ Instrument generate(int items, quint32 seed) {
         item.inlineCodes = {{1, QStringLiteral("Yes"), MissingKind::None},
                             {2, QStringLiteral("No"), MissingKind::None}};
         if (random.bounded(100) < 30) {
-            const int target = p + 2 + int(random.bounded(24));
+            const int target = p + 2 + int(random.bounded(quint32(maxSkip - 1)));
             Rule rule;
             rule.condition = QStringLiteral("q%1 = 2").arg(p + 1);
             rule.target =
@@ -205,6 +205,14 @@ int main(int argc, char** argv) {
         keepDir = args.at(k + 1);
         args.remove(k, 2);
     }
+    // --max-skip K: skips reach 2..K items ahead (default 25, as the issue asks;
+    // larger values stress the layout with many long, overlapping edges).
+    int maxSkip = 25;
+    if (const qsizetype k = args.indexOf(QStringLiteral("--max-skip"));
+        k >= 0 && k + 1 < args.size()) {
+        maxSkip = std::max(2, args.at(k + 1).toInt());
+        args.remove(k, 2);
+    }
     QList<int> sizes;
     for (const QString& a : args)
         sizes.append(a.toInt());
@@ -217,7 +225,7 @@ int main(int argc, char** argv) {
     out << "items  edges  ours_wall ours_cpu  ours_crossings  lanes(L/R)  dot_wall  dot_cpu   "
            "dot_crossings  speedup\n";
     for (int n : sizes) {
-        const Instrument in = generate(n, 20261201u + quint32(n));
+        const Instrument in = generate(n, 20261201u + quint32(n), maxSkip);
         const CompiledRouting routing(in);
         double best = 1e300, bestCpu = 1e300;
         layout::RouteGraph graph;
