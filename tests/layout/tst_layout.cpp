@@ -1,6 +1,7 @@
 #include "LayoutTestTools.h"
 
 #include "layout/CrossingCounter.h"
+#include "layout/PlainDrawing.h"
 #include "layout/RouteGraph.h"
 #include "layout/RouteLayout.h"
 #include "routing/CompiledRouting.h"
@@ -41,6 +42,8 @@ private slots:
     void neverWorseThanBestTwoSides_data();
     void neverWorseThanBestTwoSides();
     void dotExportIsDotFriendly();
+    void plainDrawingCountsByTheSameRule();
+    void dotRanksAreOurLayers();
     void moduleBandsFrameTheirItems();
     void randomInvariants_data();
     void randomInvariants();
@@ -335,6 +338,59 @@ void TestLayout::dotExportIsDotFriendly() {
         if (line.contains(u"->"_s))
             QVERIFY2(!line.contains(u" [label="_s) && !line.contains(u", label="_s),
                      qPrintable(line));
+}
+
+// A hand-written `-Tplain` drawing (y points up): "a 1" (0,4) and b (4,4) on
+// the top layer, m (2,2) in the middle, c (0,0) and d (4,0) at the bottom.
+// "a 1" -> c bulges right: Bezier (0,4) (6,3) (6,1) (0,0) is at x = 4.5 at
+// y = 2 (t = 1/2: (0 + 3*6 + 3*6 + 0) / 8). b -> m and m -> d are straight.
+// Gap top-middle: north order "a 1" (0) < b (4), south 4.5 > 2: one crossing.
+// Gap middle-bottom: north m (2) < 4.5, south d (4) > c (0): one crossing.
+// The flat edge "a 1" -> b lies in one layer and is left out.
+void TestLayout::plainDrawingCountsByTheSameRule() {
+    const QByteArray plain = "graph 1 6 4\n"
+                             "node \"a 1\" 0 4 0.5 0.5 a solid box black lightgrey\n"
+                             "node b 4 4 0.5 0.5 b solid box black lightgrey\n"
+                             "node m 2 2 0.5 0.5 m solid box black lightgrey\n"
+                             "node c 0 0 0.5 0.5 c solid box black lightgrey\n"
+                             "node d 4 0 0.5 0.5 d solid box black lightgrey\n"
+                             "edge \"a 1\" c 4 0 4 6 3 6 1 0 0 solid black\n"
+                             "edge b m 4 4 4 3.333 3.333 2.667 2.667 2 2 solid black\n"
+                             "edge m d 4 2 2 2.667 1.333 3.333 0.667 4 0 solid black\n"
+                             "edge \"a 1\" b 4 0 4 1 4 3 4 4 4 solid black\n"
+                             "stop\n";
+    const PlainDrawing d = PlainDrawing::parse(plain);
+    QCOMPARE(d.nodes.size(), 5);
+    QCOMPARE(d.edges.size(), 4);
+    QCOMPARE(d.nodes.value(u"a 1"_s), QPointF(0, 4));
+    int layers = 0;
+    QCOMPARE(d.crossings(&layers), 2);
+    QCOMPARE(layers, 3);
+}
+
+// Fairness of the dot comparison: the fall-through chain makes each item one
+// rank lower than the one before, so dot's ranks are exactly our layers
+// (START, 5 items, END: 7), and the nested skips q1 -> q5, q2 -> q4 need no
+// crossing in either drawing.
+void TestLayout::dotRanksAreOurLayers() {
+    const QString dot = QStandardPaths::findExecutable(u"dot"_s);
+    if (dot.isEmpty())
+        QSKIP("dot not installed (Debian package graphviz)");
+    const Instrument in =
+        makeInstrument({5}, {{0, u"q5"_s, u"q1 = 1"_s}, {1, u"q4"_s, u"q2 = 1"_s}});
+    const CompiledRouting routing(in);
+    QProcess p;
+    p.start(dot, {u"-Tplain"_s});
+    p.write(exportDot(routing));
+    p.closeWriteChannel();
+    QVERIFY(p.waitForFinished(60000));
+    QCOMPARE(p.exitCode(), 0);
+    const PlainDrawing d = PlainDrawing::parse(p.readAllStandardOutput());
+    QCOMPARE(d.nodes.size(), 7);
+    QCOMPARE(d.edges.size(), RouteGraph::fromRouting(routing).edges.size());
+    int layers = 0;
+    QCOMPARE(d.crossings(&layers), 0);
+    QCOMPARE(layers, 7);
 }
 
 void TestLayout::moduleBandsFrameTheirItems() {
