@@ -109,8 +109,13 @@ int sameSideConflicts(const QList<SideEdge>& side, const std::vector<int>& confl
 // Beam search over side choices in order of the upper end. Only the sides of
 // edges still open at the current layer matter for the future (a closed edge
 // cannot interleave with a later one), so states with equal open sides merge
-// exactly; keeping the kBeamWidth cheapest is the only approximation.
+// exactly; keeping the cheapest (kBeamWidth, fewer when very many edges are
+// open) is the only approximation.
 constexpr int kBeamWidth = 128;
+// States cost O(open edges) each to copy and merge; when very many edges are
+// open at once (long skips everywhere) the beam narrows to keep the step cost
+// near kBeamWidth * 64, never below 8 states.
+constexpr size_t kBeamBudget = 8192;
 
 struct BeamState {
     std::vector<std::pair<int, int>> open; // (side-edge index, side), in index order
@@ -154,8 +159,10 @@ std::vector<int> beamSides(const QList<SideEdge>& side) {
         }
         std::stable_sort(next.begin(), next.end(),
                          [](const BeamState& a, const BeamState& b) { return a.cost < b.cost; });
-        if (next.size() > size_t(kBeamWidth))
-            next.resize(size_t(kBeamWidth));
+        const size_t open = next.empty() ? 1 : std::max<size_t>(1, next.front().open.size());
+        const size_t width = std::clamp(kBeamBudget / open, size_t(8), size_t(kBeamWidth));
+        if (next.size() > width)
+            next.resize(width);
         std::vector<std::pair<int, int>> step;
         for (const BeamState& st : next)
             step.push_back({st.parent, st.side});
