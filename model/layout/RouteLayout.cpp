@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <string>
 #include <unordered_map>
+#include <utility>
 #include <vector>
 
 // The route-map layout ("spine and lanes"), a layered drawing specialised to
@@ -243,8 +244,8 @@ std::vector<std::vector<int>> overlaps(const QList<SideEdge>& side, qint64 budge
 
 class CrossOvers {
 public:
-    CrossOvers(QList<SideEdge>& side, const std::vector<int>& spineEdges)
-        : m_side(side), m_spine(spineEdges), m_used(spineEdges.size(), false) {}
+    CrossOvers(QList<SideEdge>& side, std::vector<int> spineEdges)
+        : m_side(side), m_spine(std::move(spineEdges)), m_used(m_spine.size(), false) {}
 
     // Moves one edge at a time to its cheapest form (either side whole, or
     // either side on top with a change in some free gap) while that strictly
@@ -321,7 +322,7 @@ private:
     }
 
     QList<SideEdge>& m_side;
-    const std::vector<int>& m_spine;
+    std::vector<int> m_spine; // spine edges per gap (the price of crossing there)
     std::vector<bool> m_used;
     std::vector<std::vector<int>> m_overlaps;
     mutable qint64 m_work = 0;
