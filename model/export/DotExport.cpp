@@ -1,5 +1,7 @@
 #include "DotExport.h"
 
+#include "layout/RouteGraph.h"
+
 #include <QTextStream>
 
 namespace rb {
@@ -35,20 +37,34 @@ QString nodeId(const CompiledRouting& routing, int position) {
     return dotQuoted(routing.index().at(position).item->name);
 }
 
+// Label lengths: long enough to recognise an item or a condition, short
+// enough that Graphviz keeps boxes narrow; the full text is in the tooltip.
+constexpr int kLabelChars = 40;
+constexpr int kConditionChars = 28;
+
 void writeNodes(const CompiledRouting& routing, QTextStream& out) {
     out << "  START [shape=circle];\n  END [shape=doublecircle];\n";
     for (const ItemIndex::Entry& e : routing.index().entries()) {
-        QString label = e.item->name;
-        if (!e.item->label.isEmpty())
-            label += QLatin1Char('\n') + e.item->label;
+        QString label = e.item->name, tooltip = e.item->name;
+        if (!e.item->label.isEmpty()) {
+            label += QLatin1Char('\n') + layout::shortCondition(e.item->label, kLabelChars);
+            tooltip += QStringLiteral(": ") + e.item->label;
+        }
         for (const std::optional<QString>& filter : {e.module->askIf, e.item->askIf})
-            if (filter)
-                label += QStringLiteral("\nask if: ") + *filter;
+            if (filter) {
+                label +=
+                    QStringLiteral("\nask if: ") + layout::shortCondition(*filter, kLabelChars);
+                tooltip += QStringLiteral("\nask if: ") + *filter;
+            }
         out << "  " << nodeId(routing, e.position) << " [label=" << dotQuoted(label)
-            << ", module=" << dotQuoted(e.module->name) << "];\n";
+            << ", tooltip=" << dotQuoted(tooltip) << ", module=" << dotQuoted(e.module->name)
+            << "];\n";
     }
 }
 
+// Conditions are external labels (xlabel): placed after the layout, they do
+// not become label nodes, which would double the ranks and slow dot down many
+// times over (see DEVELOPERS.md, route map).
 void writeEdges(const CompiledRouting& routing, QTextStream& out) {
     const int count = routing.itemCount();
     out << "  START -> " << nodeId(routing, 0) << ";\n";
@@ -61,15 +77,16 @@ void writeEdges(const CompiledRouting& routing, QTextStream& out) {
             if (!rule.usable)
                 continue;
             always = rule.condition == nullptr;
-            const QString label = always ? QStringLiteral("always") : *rules.at(k).condition;
+            const QString condition = always ? QStringLiteral("always") : *rules.at(k).condition;
             out << "  " << from << " -> " << nodeId(routing, rule.target)
-                << " [label=" << dotQuoted(label) << ", kind=rule];\n";
+                << " [xlabel=" << dotQuoted(layout::shortCondition(condition, kConditionChars))
+                << ", tooltip=" << dotQuoted(condition) << ", kind=rule];\n";
         }
         if (!always)
             out << "  " << from << " -> " << nodeId(routing, p + 1) << " [kind=next];\n";
         if (!routing.item(p).filters.isEmpty())
             out << "  " << from << " -> " << nodeId(routing, p + 1)
-                << " [label=\"filtered out\", style=dashed, kind=filtered];\n";
+                << " [xlabel=\"filtered out\", style=dashed, kind=filtered];\n";
     }
 }
 

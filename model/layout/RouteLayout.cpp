@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <string>
 #include <unordered_map>
+#include <utility>
 #include <vector>
 
 // The route-map layout ("spine and lanes"), a layered drawing specialised to
@@ -21,15 +22,29 @@
 //     upper end, whose states are the sides of the edges still open (exact
 //     merging, bounded width), then single-edge moves while one lowers the
 //     count.
-//  4. Lanes: per side, edges in order of increasing span take the lane just
-//     outside every lane already used over their interval (a skyline), which
-//     puts nested edges inside and keeps lanes disjoint.
-//  5. Ports: the ends of side edges on one side of a node are spread down that
+//  4. Crossing the spine: an edge may change sides once, halfway down a gap
+//     between two nodes, at the price of one crossing per spine edge in that
+//     gap. In half-layer units its two parts are intervals again and rule 3
+//     still counts their crossings, so a local search moves one edge at a time
+//     to its cheapest form (whole on either side, or either side on top with a
+//     change in some gap no other edge uses) while that strictly lowers the
+//     count; a few sweeps. This is the freedom a general layered layout has
+//     (an edge may pass a node on either side) that two pages lack.
+//  5. Lanes: per side, parts in order of increasing length take the lane just
+//     outside every lane already used over their extent (a skyline over
+//     half-layers), which puts nested parts inside and keeps lanes disjoint.
+//  6. Ports: the ends of side edges on one side of a node are spread down that
 //     side: ends whose other end lies above first (inner lanes on top), then
 //     self loops, then ends going down (outer lanes on top) — the one order in
 //     which the short horizontal stubs do not cross each other's lanes.
-// Cost: O(E log E + S + C + E*W*K) for E edges, S total span, C interleaving
-// pairs, beam width W and K edges open at once.
+// Cost: O(E log E + S + C + E*W*K) for the sides (E edges, S total span, C
+// interleaving pairs, beam width W, K edges open at once), plus O(P * S/E) per
+// sweep of step 4 for P overlapping pairs (skipped beyond 4 million pairs,
+// stopped after 10^8 part comparisons).
+// Not done, on purpose: branches side by side (a skipped block beside the
+// path that skips it) would give up one node per layer, which keeps the main
+// axis in questionnaire order and lets every edge reach its lane without
+// passing a node; see DEVELOPERS.md.
 
 namespace rb::layout {
 
@@ -39,8 +54,14 @@ struct SideEdge {
     int edge = 0;
     int lo = 0, hi = 0;
     bool backward = false;
-    int side = 1;
+    int side = 1; // of the upper part (from layer lo)
     int lane = 0;
+    int gap = -1;  // crosses the spine between layers gap and gap + 1; -1 never
+    int side2 = 1; // of the lower part (down to layer hi); = side when gap < 0
+    int lane2 = 0;
+
+    int sideAt(int layer) const { return gap >= 0 && layer > gap ? side2 : side; }
+    int laneAt(int layer) const { return gap >= 0 && layer > gap ? lane2 : lane; }
 };
 
 bool isSpine(const RouteEdge& e) {
@@ -89,8 +110,13 @@ int sameSideConflicts(const QList<SideEdge>& side, const std::vector<int>& confl
 // Beam search over side choices in order of the upper end. Only the sides of
 // edges still open at the current layer matter for the future (a closed edge
 // cannot interleave with a later one), so states with equal open sides merge
-// exactly; keeping the kBeamWidth cheapest is the only approximation.
+// exactly; keeping the cheapest (kBeamWidth, fewer when very many edges are
+// open) is the only approximation.
 constexpr int kBeamWidth = 128;
+// States cost O(open edges) each to copy and merge; when very many edges are
+// open at once (long skips everywhere) the beam narrows to keep the step cost
+// near kBeamWidth * 64, never below 8 states.
+constexpr size_t kBeamBudget = 8192;
 
 struct BeamState {
     std::vector<std::pair<int, int>> open; // (side-edge index, side), in index order
@@ -134,8 +160,10 @@ std::vector<int> beamSides(const QList<SideEdge>& side) {
         }
         std::stable_sort(next.begin(), next.end(),
                          [](const BeamState& a, const BeamState& b) { return a.cost < b.cost; });
-        if (next.size() > size_t(kBeamWidth))
-            next.resize(size_t(kBeamWidth));
+        const size_t open = next.empty() ? 1 : std::max<size_t>(1, next.front().open.size());
+        const size_t width = std::clamp(kBeamBudget / open, size_t(8), size_t(kBeamWidth));
+        if (next.size() > width)
+            next.resize(width);
         std::vector<std::pair<int, int>> step;
         for (const BeamState& st : next)
             step.push_back({st.parent, st.side});
@@ -154,7 +182,7 @@ std::vector<int> beamSides(const QList<SideEdge>& side) {
 void chooseSides(QList<SideEdge>& side) {
     const std::vector<int> sides = beamSides(side);
     for (int i = 0; i < side.size(); ++i)
-        side[i].side = sides[size_t(i)];
+        side[i].side = side[i].side2 = sides[size_t(i)];
     // Polish: single-edge moves while one lowers the count (each strictly
     // lowers it, so this ends).
     const std::vector<std::vector<int>> conflicts = interleavings(side);
@@ -164,28 +192,169 @@ void chooseSides(QList<SideEdge>& side) {
             const int s = side.at(i).side;
             if (sameSideConflicts(side, conflicts[size_t(i)], -s) <
                 sameSideConflicts(side, conflicts[size_t(i)], s)) {
-                side[i].side = -s;
+                side[i].side = side[i].side2 = -s;
                 moved = true;
             }
         }
     }
 }
 
+// --- Crossing the spine ------------------------------------------------------
+// A side edge may change sides once, in a gap between two nodes: its upper part
+// runs in a lane on one side, its lower part on the other. In half-layer units
+// (node l at 2l, the gap below it at 2l + 1) the parts are intervals again, and
+// two parts on one side cross exactly when they interleave strictly, as whole
+// edges do; the change itself crosses every spine edge of that gap. One change
+// per gap keeps the horizontal runs apart.
+struct Part {
+    int lo = 0, hi = 0; // half-layer units
+    int side = 1;
+};
+
+bool interleave(const Part& a, const Part& b) {
+    return (a.lo < b.lo && b.lo < a.hi && a.hi < b.hi) ||
+           (b.lo < a.lo && a.lo < b.hi && b.hi < a.hi);
+}
+
+int partsOf(const SideEdge& e, Part* out) {
+    if (e.gap < 0) {
+        out[0] = {2 * e.lo, 2 * e.hi, e.side};
+        return 1;
+    }
+    out[0] = {2 * e.lo, 2 * e.gap + 1, e.side};
+    out[1] = {2 * e.gap + 1, 2 * e.hi, e.side2};
+    return 2;
+}
+
+// Edges whose intervals overlap (share more than an end): the only ones whose
+// parts can interleave. Empty when there are more pairs than `budget`.
+std::vector<std::vector<int>> overlaps(const QList<SideEdge>& side, qint64 budget) {
+    std::vector<std::vector<int>> result(size_t(side.size()));
+    for (int i = 0; i < side.size(); ++i)
+        for (int j = i + 1; j < side.size() && side.at(j).lo < side.at(i).hi; ++j) {
+            if (side.at(j).hi <= side.at(i).lo)
+                continue;
+            if (--budget < 0)
+                return {};
+            result[size_t(i)].push_back(j);
+            result[size_t(j)].push_back(i);
+        }
+    return result;
+}
+
+class CrossOvers {
+public:
+    CrossOvers(QList<SideEdge>& side, std::vector<int> spineEdges)
+        : m_side(side), m_spine(std::move(spineEdges)), m_used(m_spine.size(), false) {}
+
+    // Moves one edge at a time to its cheapest form (either side whole, or
+    // either side on top with a change in some free gap) while that strictly
+    // lowers the count; a bounded number of sweeps.
+    void run() {
+        m_overlaps = overlaps(m_side, kPairBudget);
+        if (m_overlaps.empty())
+            return;
+        for (int sweep = 0; sweep < kSweeps; ++sweep) {
+            bool moved = false;
+            for (int i = 0; i < m_side.size() && m_work < kWorkBudget; ++i)
+                moved = improve(i) || moved;
+            if (!moved)
+                break;
+        }
+    }
+
+private:
+    // Bounds for instruments with many long, overlapping edges (a search that
+    // stops early leaves a valid drawing with the count reached so far).
+    static constexpr qint64 kPairBudget = 4'000'000;
+    static constexpr qint64 kWorkBudget = 100'000'000; // part comparisons
+    static constexpr int kSweeps = 6;
+
+    qint64 cost(int i, const SideEdge& form) const {
+        Part mine[2], theirs[2];
+        const int n = partsOf(form, mine);
+        m_work += qint64(m_overlaps[size_t(i)].size()) * 2 * n;
+        qint64 c = form.gap >= 0 ? m_spine[size_t(form.gap)] : 0;
+        for (int j : m_overlaps[size_t(i)]) {
+            const int m = partsOf(m_side.at(j), theirs);
+            for (int a = 0; a < n; ++a)
+                for (int b = 0; b < m; ++b)
+                    c += mine[a].side == theirs[b].side && interleave(mine[a], theirs[b]);
+        }
+        return c;
+    }
+
+    bool improve(int i) {
+        const SideEdge current = m_side.at(i);
+        SideEdge best = current;
+        qint64 bestCost = cost(i, current);
+        auto consider = [&](const SideEdge& form) {
+            const qint64 c = cost(i, form);
+            if (c < bestCost) {
+                bestCost = c;
+                best = form;
+            }
+        };
+        for (int s : {-1, 1}) {
+            SideEdge whole = current;
+            whole.gap = -1;
+            whole.side = whole.side2 = s;
+            consider(whole);
+            // A change needs a layer of each part between the ends.
+            for (int g = current.lo + 1; g <= current.hi - 2; ++g) {
+                if (m_used[size_t(g)] && g != current.gap)
+                    continue;
+                SideEdge split = current;
+                split.gap = g;
+                split.side = s;
+                split.side2 = -s;
+                consider(split);
+            }
+        }
+        if (best.gap == current.gap && best.side == current.side && best.side2 == current.side2)
+            return false;
+        if (current.gap >= 0)
+            m_used[size_t(current.gap)] = false;
+        if (best.gap >= 0)
+            m_used[size_t(best.gap)] = true;
+        m_side[i] = best;
+        return true;
+    }
+
+    QList<SideEdge>& m_side;
+    std::vector<int> m_spine; // spine edges per gap (the price of crossing there)
+    std::vector<bool> m_used;
+    std::vector<std::vector<int>> m_overlaps;
+    mutable qint64 m_work = 0;
+};
+
+// Lanes per side by a skyline over half-layer positions, parts in order of
+// increasing length: each takes the lane just outside every lane already used
+// over its extent, so nested parts lie inside and lanes never share a line.
 void assignLanes(QList<SideEdge>& side, int layerCount) {
-    QList<int> order(side.size());
-    for (int i = 0; i < order.size(); ++i)
-        order[i] = i;
-    std::stable_sort(order.begin(), order.end(), [&](int a, int b) {
-        return side.at(a).hi - side.at(a).lo < side.at(b).hi - side.at(b).lo;
-    });
-    std::vector<int> skyline[2] = {std::vector<int>(size_t(layerCount), 0),
-                                   std::vector<int>(size_t(layerCount), 0)};
-    for (int i : order) {
-        SideEdge& e = side[i];
-        std::vector<int>& sky = skyline[e.side > 0 ? 1 : 0];
-        const int lane = 1 + *std::max_element(sky.begin() + e.lo, sky.begin() + e.hi + 1);
-        std::fill(sky.begin() + e.lo, sky.begin() + e.hi + 1, lane);
-        e.lane = lane;
+    struct Ref {
+        int edge, part;
+        Part p;
+    };
+    std::vector<Ref> parts;
+    for (int i = 0; i < side.size(); ++i) {
+        Part p[2];
+        const int n = partsOf(side.at(i), p);
+        for (int k = 0; k < n; ++k)
+            parts.push_back({i, k, p[k]});
+    }
+    std::stable_sort(parts.begin(), parts.end(),
+                     [](const Ref& a, const Ref& b) { return a.p.hi - a.p.lo < b.p.hi - b.p.lo; });
+    std::vector<int> skyline[2] = {std::vector<int>(size_t(2 * layerCount), 0),
+                                   std::vector<int>(size_t(2 * layerCount), 0)};
+    for (const Ref& r : parts) {
+        std::vector<int>& sky = skyline[r.p.side > 0 ? 1 : 0];
+        const int lane = 1 + *std::max_element(sky.begin() + r.p.lo, sky.begin() + r.p.hi + 1);
+        std::fill(sky.begin() + r.p.lo, sky.begin() + r.p.hi + 1, lane);
+        SideEdge& e = side[r.edge];
+        (r.part == 0 ? e.lane : e.lane2) = lane;
+        if (e.gap < 0)
+            e.lane2 = lane;
     }
 }
 
@@ -214,10 +383,13 @@ public:
     RouteLayout run() {
         m_side = collectSideEdges(m_g);
         chooseSides(m_side);
+        CrossOvers(m_side, spineEdgesPerGap()).run();
         assignLanes(m_side, int(m_g.nodes.size()));
         for (const SideEdge& e : m_side)
-            (e.side > 0 ? m_layout.rightLanes : m_layout.leftLanes) =
-                std::max(e.lane, e.side > 0 ? m_layout.rightLanes : m_layout.leftLanes);
+            for (int layer : {e.lo, e.hi}) {
+                int& lanes = e.sideAt(layer) > 0 ? m_layout.rightLanes : m_layout.leftLanes;
+                lanes = std::max(lanes, e.laneAt(layer));
+            }
         collectPorts();
         placeNodes();
         routeSpineEdges();
@@ -227,16 +399,24 @@ public:
     }
 
 private:
+    std::vector<int> spineEdgesPerGap() const {
+        std::vector<int> count(size_t(m_g.nodes.size()), 0);
+        for (const RouteEdge& e : m_g.edges)
+            if (isSpine(e))
+                ++count[size_t(e.from)];
+        return count;
+    }
+
     void collectPorts() {
         m_ports.assign(size_t(m_g.nodes.size()) * 2, {});
         for (int i = 0; i < m_side.size(); ++i) {
             const SideEdge& s = m_side.at(i);
             const RouteEdge& e = m_g.edges.at(s.edge);
             const int self = e.from == e.to ? 1 : -1;
-            portsOf(e.from, s.side)
-                .push_back({i, true, self > 0 ? 1 : (e.to < e.from ? 0 : 2), s.lane});
-            portsOf(e.to, s.side)
-                .push_back({i, false, self > 0 ? 1 : (e.from < e.to ? 0 : 2), s.lane});
+            portsOf(e.from, s.sideAt(e.from))
+                .push_back({i, true, self > 0 ? 1 : (e.to < e.from ? 0 : 2), s.laneAt(e.from)});
+            portsOf(e.to, s.sideAt(e.to))
+                .push_back({i, false, self > 0 ? 1 : (e.from < e.to ? 0 : 2), s.laneAt(e.to)});
         }
         for (std::vector<PortEnd>& ports : m_ports)
             std::sort(ports.begin(), ports.end(), portBefore);
@@ -304,18 +484,30 @@ private:
         for (int i = 0; i < m_side.size(); ++i) {
             const SideEdge& s = m_side.at(i);
             const RouteEdge& e = m_g.edges.at(s.edge);
+            const int fromSide = s.sideAt(e.from), toSide = s.sideAt(e.to);
             const QRectF& from = m_layout.nodes.at(e.from);
             const QRectF& to = m_layout.nodes.at(e.to);
-            const double fromX = s.side > 0 ? from.right() : from.left();
-            const double toX = s.side > 0 ? to.right() : to.left();
-            const double x = laneX(s.side, s.lane);
-            const double y0 = portY(e.from, s.side, i, true);
-            const double y1 = portY(e.to, s.side, i, false);
+            const double fromX = fromSide > 0 ? from.right() : from.left();
+            const double toX = toSide > 0 ? to.right() : to.left();
+            const double x0 = laneX(fromSide, s.laneAt(e.from));
+            const double x1 = laneX(toSide, s.laneAt(e.to));
+            const double y0 = portY(e.from, fromSide, i, true);
+            const double y1 = portY(e.to, toSide, i, false);
             EdgeRoute& r = m_layout.edges[s.edge];
-            r.side = s.side;
-            r.lane = s.lane;
-            r.points = {QPointF(fromX, y0), QPointF(x, y0), QPointF(x, y1), QPointF(toX, y1)};
-            r.labelAnchor = QPointF(fromX + s.side * 3, y0 - 2);
+            r.side = fromSide;
+            r.lane = s.laneAt(e.from);
+            r.targetSide = toSide;
+            r.targetLane = s.laneAt(e.to);
+            r.crossGap = s.gap;
+            r.points = {QPointF(fromX, y0), QPointF(x0, y0)};
+            if (s.gap >= 0) {
+                // Across the spine halfway down the gap below node `gap`.
+                const double y =
+                    (m_layout.nodes.at(s.gap).bottom() + m_layout.nodes.at(s.gap + 1).top()) / 2;
+                r.points << QPointF(x0, y) << QPointF(x1, y);
+            }
+            r.points << QPointF(x1, y1) << QPointF(toX, y1);
+            r.labelAnchor = QPointF(fromX + fromSide * 3, y0 - 2);
         }
     }
 
@@ -358,12 +550,20 @@ QList<CrossingCounter::LayeredEdge> RouteLayout::layeredEdges(const RouteGraph& 
     layered.reserve(graph.edges.size());
     for (int i = 0; i < graph.edges.size(); ++i) {
         const RouteEdge& e = graph.edges.at(i);
+        const EdgeRoute& r = edges.at(i);
         const int lo = std::min(e.from, e.to), hi = std::max(e.from, e.to);
         CrossingCounter::LayeredEdge l;
         l.firstLayer = lo;
-        const double laneXValue = edges.at(i).points.size() > 1 ? edges.at(i).points.at(1).x() : 0;
-        for (int layer = lo; layer <= hi; ++layer)
-            l.xs.append(layer == lo || layer == hi ? nodes.at(layer).center().x() : laneXValue);
+        // Lane x next to the source and next to the target (equal unless the
+        // edge crosses the spine); 0 for spine edges, which have no inner layer.
+        const double sourceX = r.points.size() > 3 ? r.points.at(1).x() : 0;
+        const double targetX = r.points.size() > 3 ? r.points.at(r.points.size() - 2).x() : 0;
+        for (int layer = lo; layer <= hi; ++layer) {
+            const bool nearSource =
+                r.crossGap < 0 || (e.from < e.to ? layer <= r.crossGap : layer > r.crossGap);
+            l.xs.append(layer == lo || layer == hi ? nodes.at(layer).center().x()
+                                                   : (nearSource ? sourceX : targetX));
+        }
         layered.append(l);
     }
     return layered;

@@ -25,9 +25,15 @@ struct LayoutMetrics {
 // Where an edge runs. Spine edges join consecutive nodes straight down the
 // node column; side edges leave a node sideways into a vertical lane left
 // (side -1) or right (side +1) of the column and enter the other node sideways.
+// A side edge may cross the spine once, in the gap below node crossGap: then it
+// runs in one lane next to its source and in another on the other side next to
+// its target (points: source stub, lane, across, lane, target stub).
 struct EdgeRoute {
-    int side = 0;          // -1 left lane, 0 spine, +1 right lane
+    int side = 0;          // at the source end: -1 left lane, 0 spine, +1 right lane
     int lane = 0;          // 1-based lane number on its side; 0 on the spine
+    int crossGap = -1;     // crosses the spine below this node index; -1 never
+    int targetSide = 0;    // side and lane at the target end (= side, lane unless
+    int targetLane = 0;    // the edge crosses the spine)
     QList<QPointF> points; // polyline from the source end to the target end
     QPointF labelAnchor;   // where a label may start (left edge of its baseline)
 };

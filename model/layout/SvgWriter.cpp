@@ -42,8 +42,24 @@ public:
         m_xml.setAutoFormattingIndent(1);
     }
 
+    // The layout's bounds plus the rule labels, which may reach past the
+    // outermost lane (width estimated at 0.6 em a character of the 9 px label
+    // font: a rule of thumb, common practice, no source).
+    QRectF drawingBounds() const {
+        QRectF b = m_l.bounds;
+        for (int e = 0; e < m_g.edges.size(); ++e) {
+            if (m_g.edges.at(e).kind != RouteEdge::Kind::Rule)
+                continue;
+            const EdgeRoute& route = m_l.edges.at(e);
+            const double w = 5.4 * double(shortCondition(m_g.edges.at(e).condition).size()) + 4;
+            const QPointF at = route.labelAnchor;
+            b |= QRectF(route.side < 0 ? at.x() - w : at.x(), at.y() - 10, w, 13);
+        }
+        return b;
+    }
+
     void write(const QString& title) {
-        const QRectF b = m_l.bounds;
+        const QRectF b = drawingBounds();
         m_xml.writeStartDocument();
         m_xml.writeStartElement(QStringLiteral("svg"));
         m_xml.writeDefaultNamespace(QStringLiteral("http://www.w3.org/2000/svg"));

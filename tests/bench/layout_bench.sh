@@ -1,7 +1,11 @@
 #!/bin/sh
 # Route-map layout vs Graphviz dot (see layout_bench.cpp). Not a ctest test.
-# Usage: tests/bench/layout_bench.sh [BUILD_DIR] [SIZES...]
+# Usage: tests/bench/layout_bench.sh [BUILD_DIR] [OPTIONS] [SIZES...]
 #   BUILD_DIR: a configured build directory (default: build-bench, created as Release)
+#   OPTIONS: --no-dot (ours only), --keep-dot DIR (leave the DOT files there),
+#            --max-skip K (skips 2..K items ahead; default 25)
+#   SIZES: items per generated instrument (default 200 1000 3000; dot needs
+#          minutes at 3,000 on a loaded machine)
 # Needs: graphviz (dot), pkg-config, the Qt 6 / yaml-cpp / sqlite dev packages.
 set -eu
 root=$(cd "$(dirname "$0")/../.." && pwd)

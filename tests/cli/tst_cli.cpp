@@ -237,7 +237,7 @@ void TestCli::exportDotHasEveryItem() {
     QCOMPARE(run.exitCode, 0);
     QVERIFY(run.out.startsWith("digraph"));
     // The rule edge carries its condition, quotes escaped.
-    QVERIFY(run.out.contains("\"owns\" -> \"thanks\" [label=\"owns = 2\""));
+    QVERIFY(run.out.contains("\"owns\" -> \"thanks\" [xlabel=\"owns = 2\""));
     for (const char* name : {"\"owns\"", "\"size\"", "\"crops\"", "\"thanks\"", "START", "END"})
         QVERIFY2(run.out.contains(name), name);
 }

@@ -1,10 +1,12 @@
 #include "LayoutTestTools.h"
 
 #include "layout/CrossingCounter.h"
+#include "layout/PlainDrawing.h"
 #include "layout/RouteGraph.h"
 #include "layout/RouteLayout.h"
 #include "routing/CompiledRouting.h"
 
+#include "export/DotExport.h"
 #include "export/SvgExport.h"
 
 #include <QProcess>
@@ -36,6 +38,12 @@ private slots:
     void nestedSkipsDoNotCross();
     void interleavedPairUsesBothSides();
     void threeInterleavedSkipsCrossOnce();
+    void crossingTheSpineBeatsTwoSides();
+    void neverWorseThanBestTwoSides_data();
+    void neverWorseThanBestTwoSides();
+    void dotExportIsDotFriendly();
+    void plainDrawingCountsByTheSameRule();
+    void dotRanksAreOurLayers();
     void moduleBandsFrameTheirItems();
     void randomInvariants_data();
     void randomInvariants();
@@ -235,6 +243,156 @@ void TestLayout::threeInterleavedSkipsCrossOnce() {
     QCOMPARE(geometricCrossings(l), 1);
 }
 
+// Node intervals [lo, hi] of the side edges, reasoned by hand (x = the pair
+// interleaves: lo1 < lo2 < hi1 < hi2; every other pair is nested or apart):
+//   A = [12,18] [11,19]   D1 = [5,13] [4,14]   D2 = [8,31] [8,32]
+//   B = [27,33] [26,34]   E = [15,30]
+// Conflicts: all 4 pairs A-D1, D1-D2, D2-B; both pairs E-A and E-B. The 5-cycle
+// E-A-D1-D2-B-E is odd, and two edge-disjoint copies of it exist (one through
+// the first edge of each group, one through the second), so on two sides alone
+// at least 2 crossings remain (A left, D1 right, D2 left, B right gives 2).
+// Crossing the spine once costs 1 (each gap has one fall-through edge): E's
+// upper part [15, g+1/2] on B's opposite side and its lower part [g+1/2, 30] on
+// A's opposite side meet nothing for 19 <= g <= 25, so the least count is 1.
+void TestLayout::crossingTheSpineBeatsTwoSides() {
+    auto rule = [](int lo, int hi, int code) {
+        // Node n is item qn (position n - 1).
+        return RuleSpec{lo - 1, QStringLiteral("q%1").arg(hi),
+                        QStringLiteral("q%1 = %2").arg(lo).arg(code)};
+    };
+    const Instrument in = makeInstrument({36}, {rule(12, 18, 1), rule(11, 19, 1), rule(5, 13, 1),
+                                                rule(4, 14, 1), rule(8, 31, 1), rule(8, 32, 2),
+                                                rule(27, 33, 1), rule(26, 34, 1), rule(15, 30, 1)});
+    const CompiledRouting routing(in);
+    const RouteGraph g = RouteGraph::fromRouting(routing);
+    const RouteLayout l = layoutRouteGraph(g);
+    QCOMPARE(l.crossings(g), 1);
+    QCOMPARE(geometricCrossings(l), 1);
+    int e = -1;
+    for (int i = 0; i < g.edges.size(); ++i)
+        if (g.edges.at(i).from == 15 && g.edges.at(i).to == 30)
+            e = i;
+    QVERIFY(e >= 0);
+    const EdgeRoute& route = l.edges.at(e);
+    QVERIFY2(route.crossGap >= 19 && route.crossGap <= 25,
+             qPrintable(QString::number(route.crossGap)));
+    QCOMPARE(route.targetSide, -route.side);
+    QCOMPARE(route.points.size(), 6);
+    QString where;
+    QVERIFY2(!edgeThroughNode(l, &where), qPrintable(where));
+}
+
+void TestLayout::neverWorseThanBestTwoSides_data() {
+    QTest::addColumn<quint32>("seed");
+    for (quint32 seed = 101; seed <= 130; ++seed)
+        QTest::addRow("seed %u", seed) << seed;
+}
+
+// Reference by exhaustion: the least count over all 2^k side choices, each
+// edge whole on one side (two edges on one side cross when they interleave).
+// The layout may do better by crossing the spine, never worse.
+void TestLayout::neverWorseThanBestTwoSides() {
+    QFETCH(quint32, seed);
+    QRandomGenerator random(seed);
+    const Instrument in = randomInstrument(random, 12 + int(seed % 14));
+    const CompiledRouting routing(in);
+    const RouteGraph g = RouteGraph::fromRouting(routing);
+    QList<std::pair<int, int>> side;
+    for (const RouteEdge& e : g.edges)
+        if (e.to != e.from + 1)
+            side.append({std::min(e.from, e.to), std::max(e.from, e.to)});
+    if (side.size() > 16)
+        QSKIP("too many side edges to enumerate");
+    qint64 best = -1;
+    for (quint32 mask = 0; mask < (1u << side.size()); ++mask) {
+        qint64 count = 0;
+        for (int i = 0; i < side.size(); ++i)
+            for (int j = 0; j < side.size(); ++j) {
+                const auto [a, b] = side.at(i);
+                const auto [c, d] = side.at(j);
+                count += ((mask >> i) & 1) == ((mask >> j) & 1) && a < c && c < b && b < d;
+            }
+        if (best < 0 || count < best)
+            best = count;
+    }
+    const RouteLayout l = layoutRouteGraph(g);
+    QVERIFY2(l.crossings(g) <= best,
+             qPrintable(QStringLiteral("%1 > %2").arg(l.crossings(g)).arg(best)));
+    QCOMPARE(geometricCrossings(l), l.crossings(g));
+}
+
+// The DOT export keeps conditions off the ranks: external labels (no edge
+// `label`, which makes dot add label nodes and double the ranks), a condition
+// longer than 28 characters cut to 27 plus an ellipsis, the full text in the
+// tooltip.
+void TestLayout::dotExportIsDotFriendly() {
+    const QString condition = u"q1 = 1 and q1 <> 2 and q1 < 3 and q1 > 0"_s; // 40 characters
+    const Instrument in = makeInstrument({3}, {{0, u"q3"_s, condition}});
+    const CompiledRouting routing(in);
+    const QString dot = QString::fromUtf8(exportDot(routing));
+    QVERIFY2(dot.contains(
+                 u"\"q1\" -> \"q3\" [xlabel=\"q1 = 1 and q1 <> 2 and q1 <\u2026\", tooltip=\""_s +
+                 condition + u"\""_s),
+             qPrintable(dot));
+    for (const QString& line : dot.split(u'\n'))
+        if (line.contains(u"->"_s))
+            QVERIFY2(!line.contains(u" [label="_s) && !line.contains(u", label="_s),
+                     qPrintable(line));
+}
+
+// A hand-written `-Tplain` drawing (y points up): "a 1" (0,4) and b (4,4) on
+// the top layer, m (2,2) in the middle, c (0,0) and d (4,0) at the bottom.
+// "a 1" -> c bulges right: Bezier (0,4) (6,3) (6,1) (0,0) is at x = 4.5 at
+// y = 2 (t = 1/2: (0 + 3*6 + 3*6 + 0) / 8). b -> m and m -> d are straight.
+// Gap top-middle: north order "a 1" (0) < b (4), south 4.5 > 2: one crossing.
+// Gap middle-bottom: north m (2) < 4.5, south d (4) > c (0): one crossing.
+// The flat edge "a 1" -> b lies in one layer and is left out.
+void TestLayout::plainDrawingCountsByTheSameRule() {
+    const QByteArray plain = "graph 1 6 4\n"
+                             "node \"a 1\" 0 4 0.5 0.5 a solid box black lightgrey\n"
+                             "node b 4 4 0.5 0.5 b solid box black lightgrey\n"
+                             "node m 2 2 0.5 0.5 m solid box black lightgrey\n"
+                             "node c 0 0 0.5 0.5 c solid box black lightgrey\n"
+                             "node d 4 0 0.5 0.5 d solid box black lightgrey\n"
+                             "edge \"a 1\" c 4 0 4 6 3 6 1 0 0 solid black\n"
+                             "edge b m 4 4 4 3.333 3.333 2.667 2.667 2 2 solid black\n"
+                             "edge m d 4 2 2 2.667 1.333 3.333 0.667 4 0 solid black\n"
+                             "edge \"a 1\" b 4 0 4 1 4 3 4 4 4 solid black\n"
+                             "stop\n";
+    const PlainDrawing d = PlainDrawing::parse(plain);
+    QCOMPARE(d.nodes.size(), 5);
+    QCOMPARE(d.edges.size(), 4);
+    QCOMPARE(d.nodes.value(u"a 1"_s), QPointF(0, 4));
+    int layers = 0;
+    QCOMPARE(d.crossings(&layers), 2);
+    QCOMPARE(layers, 3);
+}
+
+// Fairness of the dot comparison: the fall-through chain makes each item one
+// rank lower than the one before, so dot's ranks are exactly our layers
+// (START, 5 items, END: 7), and the nested skips q1 -> q5, q2 -> q4 need no
+// crossing in either drawing.
+void TestLayout::dotRanksAreOurLayers() {
+    const QString dot = QStandardPaths::findExecutable(u"dot"_s);
+    if (dot.isEmpty())
+        QSKIP("dot not installed (Debian package graphviz)");
+    const Instrument in =
+        makeInstrument({5}, {{0, u"q5"_s, u"q1 = 1"_s}, {1, u"q4"_s, u"q2 = 1"_s}});
+    const CompiledRouting routing(in);
+    QProcess p;
+    p.start(dot, {u"-Tplain"_s});
+    p.write(exportDot(routing));
+    p.closeWriteChannel();
+    QVERIFY(p.waitForFinished(60000));
+    QCOMPARE(p.exitCode(), 0);
+    const PlainDrawing d = PlainDrawing::parse(p.readAllStandardOutput());
+    QCOMPARE(d.nodes.size(), 7);
+    QCOMPARE(d.edges.size(), RouteGraph::fromRouting(routing).edges.size());
+    int layers = 0;
+    QCOMPARE(d.crossings(&layers), 0);
+    QCOMPARE(layers, 7);
+}
+
 void TestLayout::moduleBandsFrameTheirItems() {
     const Instrument in = makeInstrument({2, 3}, {{0, u"m2"_s, u"q1 = 1"_s}});
     const CompiledRouting routing(in);
@@ -291,19 +449,22 @@ void TestLayout::randomInvariants() {
     // The layered count (what the benchmark reports) equals the crossings
     // actually drawn, found segment by segment.
     QCOMPARE(l.crossings(g), geometricCrossings(l));
-    // Lanes on one side do not share a vertical line where they overlap.
-    for (int i = 0; i < l.edges.size(); ++i)
-        for (int j = i + 1; j < l.edges.size(); ++j) {
-            const EdgeRoute& a = l.edges.at(i);
-            const EdgeRoute& b = l.edges.at(j);
-            if (a.side == 0 || a.side != b.side || a.lane != b.lane)
-                continue;
-            const double aTop = std::min(a.points.at(1).y(), a.points.at(2).y());
-            const double aBottom = std::max(a.points.at(1).y(), a.points.at(2).y());
-            const double bTop = std::min(b.points.at(1).y(), b.points.at(2).y());
-            const double bBottom = std::max(b.points.at(1).y(), b.points.at(2).y());
-            QVERIFY(aBottom < bTop || bBottom < aTop);
+    // Lanes on one side do not share a vertical line where they overlap; an
+    // edge that crosses the spine has a vertical run on each side.
+    struct Run {
+        double x, top, bottom;
+    };
+    QList<Run> runs;
+    for (const EdgeRoute& r : l.edges)
+        for (int k = 1; k + 2 < r.points.size(); k += 2) {
+            const QPointF a = r.points.at(k), b = r.points.at(k + 1);
+            QCOMPARE(a.x(), b.x());
+            runs.append({a.x(), std::min(a.y(), b.y()), std::max(a.y(), b.y())});
         }
+    for (int i = 0; i < runs.size(); ++i)
+        for (int j = i + 1; j < runs.size(); ++j)
+            if (runs.at(i).x == runs.at(j).x)
+                QVERIFY(runs.at(i).bottom < runs.at(j).top || runs.at(j).bottom < runs.at(i).top);
 }
 
 namespace {
