@@ -7,6 +7,7 @@
 #include "CodeTableModel.h"
 #include "ConditionField.h"
 #include "EditorWindow.h"
+#include "FileExports.h"
 #include "FindingsModel.h"
 #include "ItemForm.h"
 #include "OutlineModel.h"
@@ -269,7 +270,13 @@ void TestGui::buildFromEmpty() {
         QVERIFY(!w.isWindowModified());
         QVERIFY(w.windowTitle().startsWith(name));
         EditorWindow reopened;
+        // `w` still holds the file: the second window says so and opens it read-only.
+        QStringList messages;
+        reopened.fileExports()->setErrorReporter(
+            [&](const QString&, const QString& message) { messages.append(message); });
         QVERIFY(reopened.openFile(path));
+        QCOMPARE(messages.size(), 1);
+        QVERIFY(reopened.isReadOnly());
         QCOMPARE(reopened.document()->instrument(), expected);
         QCOMPARE(reopened.outlineModel()->rowCount(), 1);
     }
