@@ -33,6 +33,7 @@
 #include <QMenuBar>
 #include <QRegularExpression>
 #include <QSaveFile>
+#include <QScrollArea>
 #include <QSettings>
 #include <QStatusBar>
 #include <QStyleFactory>
@@ -210,8 +211,14 @@ void EditorWindow::buildPanels() {
                                   m_codeLists, Qt::RightDockWidgetArea);
     QDockWidget* findingsDock = dock(tr("Findings"), QStringLiteral("findingsDock"), m_findingsView,
                                      Qt::BottomDockWidgetArea);
+    // The trial run's controls need ~300 px; scrolled, they do not force the
+    // findings (tabbed with it) to that height.
+    auto* trialScroll = new QScrollArea;
+    trialScroll->setWidgetResizable(true);
+    trialScroll->setFrameShape(QFrame::NoFrame);
+    trialScroll->setWidget(m_trial);
     QDockWidget* trialDock =
-        dock(tr("Trial run"), QStringLiteral("trialDock"), m_trial, Qt::BottomDockWidgetArea);
+        dock(tr("Trial run"), QStringLiteral("trialDock"), trialScroll, Qt::BottomDockWidgetArea);
     QDockWidget* previewDock = dock(tr("Dictionary preview"), QStringLiteral("previewDock"),
                                     m_preview, Qt::BottomDockWidgetArea);
     QDockWidget* historyDock =
@@ -222,13 +229,15 @@ void EditorWindow::buildPanels() {
         if (visible && m_mapRevision != m_runner->latest().revision)
             m_mapTimer->start();
     });
+    // The side columns run the full height; findings and friends sit under the form.
+    setCorner(Qt::BottomLeftCorner, Qt::LeftDockWidgetArea);
+    setCorner(Qt::BottomRightCorner, Qt::RightDockWidgetArea);
     splitDockWidget(outlineDock, historyDock, Qt::Vertical);
-    tabifyDockWidget(rulesDock, m_routeMapDock);
     tabifyDockWidget(findingsDock, trialDock);
     tabifyDockWidget(findingsDock, previewDock);
     findingsDock->raise();
-    rulesDock->raise();
-    splitDockWidget(rulesDock, listsDock, Qt::Vertical);
+    // Right: rules and code lists as tabs above the route map, always in view.
+    splitDockWidget(rulesDock, m_routeMapDock, Qt::Vertical);
     tabifyDockWidget(rulesDock, listsDock);
     rulesDock->raise();
 }
@@ -250,7 +259,9 @@ void EditorWindow::sizeDocks() {
                 Qt::Horizontal);
     resizeDocks({byName("outlineDock"), byName("historyDock")}, {height() * 3 / 4, height() / 6},
                 Qt::Vertical);
-    resizeDocks({byName("findingsDock")}, {height() / 5}, Qt::Vertical);
+    resizeDocks({byName("rulesDock"), byName("routeMapDock")}, {height() * 2 / 5, height() * 3 / 5},
+                Qt::Vertical);
+    resizeDocks({byName("findingsDock")}, {height() / 4}, Qt::Vertical);
 }
 
 void EditorWindow::buildActions() {
@@ -369,9 +380,14 @@ void EditorWindow::buildViewMenu() {
 void EditorWindow::setDarkPalette(bool dark) {
     // Fusion draws every palette role the same on every platform.
     static const QPalette light = QApplication::palette();
-    if (QStyle* fusion = QStyleFactory::create(QStringLiteral("Fusion")))
-        QApplication::setStyle(fusion);
+    if (QApplication::style()->name().compare(u"fusion", Qt::CaseInsensitive) != 0)
+        if (QStyle* fusion = QStyleFactory::create(QStringLiteral("Fusion")))
+            QApplication::setStyle(fusion);
     QApplication::setPalette(dark ? darkPalette() : light);
+    // Widgets under a style sheet were polished with the palette they had then
+    // and do not follow a later application palette; polishing again does.
+    setStyleSheet(QString());
+    setStyleSheet(Icons::styleSheet());
 }
 
 void EditorWindow::forgetFile() {

@@ -464,6 +464,8 @@ void TestGui::screenshots() {
         if (item.isValid())
             w.outlineView()->setCurrentIndex(item);
         QTest::qWait(400); // the preview refresh is coalesced
+        // The route map is drawn a little after the findings.
+        QTRY_VERIFY_WITH_TIMEOUT(w.routeMapRevision() == w.document()->revision(), 10000);
         const QString file = out + (dark ? u"/main-window-dark.png"_s : u"/main-window.png"_s);
         QVERIFY(w.grab().save(file));
         w.setDarkPalette(false);

@@ -26,12 +26,15 @@
 
 #include <QAction>
 #include <QApplication>
+#include <QComboBox>
 #include <QDockWidget>
 #include <QFile>
 #include <QImage>
 #include <QLabel>
+#include <QLineEdit>
 #include <QPlainTextEdit>
 #include <QSignalSpy>
+#include <QSpinBox>
 #include <QStandardPaths>
 #include <QTemporaryDir>
 #include <QTest>
@@ -122,6 +125,7 @@ private slots:
     void secondEditorIsReadOnly();
     void changedOnDiskAsksBeforeSaving();
     void markupShowsAsText();
+    void darkPaletteReachesFormFields();
 
 private:
     QTemporaryDir m_dir;
@@ -449,6 +453,39 @@ void TestGuiEditor::markupShowsAsText() {
     for (QTextBlock block = preview->document()->begin(); block.isValid(); block = block.next())
         for (auto it = block.begin(); !it.atEnd(); ++it)
             QVERIFY(!it.fragment().charFormat().isImageFormat()); // no <img>/<svg> came alive
+}
+
+void TestGuiEditor::darkPaletteReachesFormFields() {
+    EditorWindow w;
+    w.resize(1200, 800);
+    w.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&w));
+    QVERIFY(w.openFile(kGarden));
+    w.outlineView()->setCurrentIndex(w.outlineModel()->itemIndex(0, 1));
+    w.setDarkPalette(true);
+    QApplication::processEvents();
+    // The dark palette's Base is #1f2124 (views/EditorWindow.cpp darkPalette()).
+    const QColor darkBase(0x1f, 0x21, 0x24);
+    QList<QWidget*> fields = {w.itemForm()->nameEdit()};
+    for (QWidget* field : w.itemForm()->findChildren<QPlainTextEdit*>())
+        fields.append(field);
+    for (QWidget* field : w.itemForm()->findChildren<QComboBox*>())
+        fields.append(field);
+    for (QWidget* field : w.itemForm()->findChildren<QSpinBox*>())
+        fields.append(field);
+    QVERIFY(fields.size() > 4);
+    for (QWidget* field : fields) {
+        QCOMPARE(field->palette().color(QPalette::Base), darkBase);
+        QVERIFY2(field->palette().color(QPalette::Button).lightness() < 100,
+                 field->metaObject()->className());
+    }
+    // What is painted, not only what is set: the middle of the name field is dark.
+    QLineEdit* name = w.itemForm()->nameEdit();
+    name->clear();
+    const QImage shot = name->grab().toImage();
+    QVERIFY(shot.pixelColor(shot.width() / 2, shot.height() / 2).lightness() < 80);
+    w.setDarkPalette(false);
+    QVERIFY(name->palette().color(QPalette::Base).lightness() > 200);
 }
 
 int main(int argc, char** argv) {
