@@ -645,6 +645,12 @@ void EditorWindow::refreshRouteMap() {
     // A map of an older revision than the findings would mislabel positions.
     if (!m_routeMapDock->isVisible() || analysis.revision != m_document->revision())
         return;
+    // Drawing 5,000 items takes ~100 ms here: wait for a pause in the editing,
+    // so the redraw never holds up the findings of the next edit.
+    if (m_runner->isBusy()) {
+        m_mapTimer->start();
+        return;
+    }
     m_routeMap->setRouting(CompiledRouting(m_document->instrument()), &analysis.routing);
     m_mapRevision = analysis.revision;
     const auto [module, item] = selectedRow();
