@@ -2,6 +2,7 @@
 
 #include "CodeTableModel.h"
 #include "Icons.h"
+#include "PlainText.h"
 #include "edit/Cascades.h"
 #include "edit/Document.h"
 #include "edit/StructureCommands.h"
@@ -18,8 +19,9 @@
 namespace rb {
 
 CodeListPanel::CodeListPanel(Document* document, QWidget* parent)
-    : QWidget(parent), m_document(document), m_lists(new QListWidget), m_usedBy(new QLabel),
-      m_codes(new QTableView), m_model(new CodeTableModel(document, this)),
+    : QWidget(parent), m_document(document), m_lists(new QListWidget),
+      m_usedBy(plainLabel(new QLabel)), m_codes(new QTableView),
+      m_model(new CodeTableModel(document, this)),
       m_removeList(new QPushButton(Icons::get(Icons::Remove), tr("Delete list"))) {
     m_lists->setObjectName(QStringLiteral("codeLists"));
     m_lists->setEditTriggers(QAbstractItemView::DoubleClicked | QAbstractItemView::EditKeyPressed);

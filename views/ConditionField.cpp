@@ -1,6 +1,7 @@
 #include "ConditionField.h"
 
 #include "ConditionHighlighter.h"
+#include "PlainText.h"
 #include "condition/Lexer.h"
 #include "condition/Parser.h"
 #include "instrument/Instrument.h"
@@ -75,7 +76,7 @@ private:
 };
 
 ConditionField::ConditionField(QWidget* parent)
-    : QWidget(parent), m_editor(new LineEdit(this)), m_error(new QLabel(this)),
+    : QWidget(parent), m_editor(new LineEdit(this)), m_error(plainLabel(new QLabel(this))),
       m_highlighter(new ConditionHighlighter(m_editor->document())),
       m_completer(new QCompleter(this)), m_completions(new QStringListModel(this)) {
     auto* layout = new QVBoxLayout(this);

@@ -2,10 +2,12 @@
 
 #include "CodeListPanel.h"
 #include "DataCheckDialog.h"
+#include "FileExports.h"
 #include "FindingsModel.h"
 #include "Icons.h"
 #include "ItemForm.h"
 #include "OutlineModel.h"
+#include "PlainText.h"
 #include "PreviewHtml.h"
 #include "PreviewPanel.h"
 #include "RulesPanel.h"
@@ -15,8 +17,9 @@
 #include "edit/Cascades.h"
 #include "edit/Document.h"
 #include "edit/StructureCommands.h"
-#include "export/DotExport.h"
+#include "routemap/RouteMapView.h"
 #include "storage/InstrumentFile.h"
+#include "storage/ProjectLock.h"
 #include "storage/YamlFormat.h"
 
 #include <QAction>
@@ -31,6 +34,7 @@
 #include <QMenuBar>
 #include <QRegularExpression>
 #include <QSaveFile>
+#include <QScrollArea>
 #include <QSettings>
 #include <QStatusBar>
 #include <QStyleFactory>
@@ -95,14 +99,20 @@ EditorWindow::EditorWindow(QWidget* parent)
     : QMainWindow(parent), m_document(new Document(this)),
       m_runner(new AnalysisRunner(m_document, this)), m_outline(new OutlineModel(m_document, this)),
       m_findings(new FindingsModel(this)), m_outlineView(new QTreeView),
-      m_findingsView(new QTableView), m_counts(new QLabel) {
+      m_findingsView(new QTableView), m_exports(new FileExports(m_document, this)),
+      m_routeMap(new RouteMapView), m_mapTimer(new QTimer(this)), m_counts(new QLabel),
+      m_readOnlyNote(new QLabel(tr("Read-only"))) {
     Icons::initResources();
     setWindowIcon(Icons::get(Icons::Application));
     setStyleSheet(Icons::styleSheet());
     setDockOptions(AnimatedDocks | AllowTabbedDocks | AllowNestedDocks);
     buildPanels();
     buildActions();
+    statusBar()->addPermanentWidget(m_readOnlyNote);
     statusBar()->addPermanentWidget(m_counts);
+    m_readOnlyNote->setObjectName(QStringLiteral("readOnlyNote"));
+    m_readOnlyNote->hide();
+    connect(m_document, &Document::readOnlyChanged, this, &EditorWindow::applyReadOnly);
     connect(m_document, &Document::modifiedChanged, this, &EditorWindow::updateTitle);
     connect(m_document, &Document::pathChanged, this, &EditorWindow::updateTitle);
     connect(m_runner, &AnalysisRunner::analysed, this, &EditorWindow::analysisArrived);
@@ -111,12 +121,24 @@ EditorWindow::EditorWindow(QWidget* parent)
             this, tr("Unsaved changes"), tr("The instrument has unsaved changes. Save them first?"),
             QMessageBox::Save | QMessageBox::Discard | QMessageBox::Cancel, QMessageBox::Save);
     };
+    m_askOverwrite = [this](const QString& path) {
+        return QMessageBox::question(
+                   this, tr("Changed on disk"),
+                   tr("%1 was changed by another program since it was opened here. "
+                      "Overwrite those changes with this editor's version?")
+                       .arg(QFileInfo(path).fileName()),
+                   QMessageBox::Yes | QMessageBox::No, QMessageBox::No) == QMessageBox::Yes;
+    };
     resize(1360, 860);
     newDocument();
     setDarkPalette(QSettings().value(QStringLiteral("darkPalette"), false).toBool());
 }
 
 EditorWindow::~EditorWindow() = default;
+
+bool EditorWindow::isReadOnly() const {
+    return m_document->isReadOnly();
+}
 
 QDockWidget* EditorWindow::dock(const QString& title, const QString& name, QWidget* widget,
                                 Qt::DockWidgetArea area) {
@@ -175,9 +197,12 @@ void EditorWindow::buildPanels() {
     undoView->setObjectName(QStringLiteral("history"));
     undoView->setEmptyLabel(tr("(opened)"));
 
-    auto* mapNote = new QLabel(tr("The route map will appear here."));
-    mapNote->setAlignment(Qt::AlignCenter);
-    mapNote->setObjectName(QStringLiteral("panelNote"));
+    // The map is laid out on the GUI thread, so it is redrawn a little after the
+    // findings (never delaying them) and only while its dock is on screen.
+    m_mapTimer->setSingleShot(true);
+    m_mapTimer->setInterval(120);
+    connect(m_mapTimer, &QTimer::timeout, this, &EditorWindow::refreshRouteMap);
+    connect(m_routeMap, &RouteMapView::itemSelected, this, &EditorWindow::routeMapSelected);
 
     QDockWidget* outlineDock =
         dock(tr("Outline"), QStringLiteral("outlineDock"), m_outlineView, Qt::LeftDockWidgetArea);
@@ -187,21 +212,33 @@ void EditorWindow::buildPanels() {
                                   m_codeLists, Qt::RightDockWidgetArea);
     QDockWidget* findingsDock = dock(tr("Findings"), QStringLiteral("findingsDock"), m_findingsView,
                                      Qt::BottomDockWidgetArea);
+    // The trial run's controls need ~300 px; scrolled, they do not force the
+    // findings (tabbed with it) to that height.
+    auto* trialScroll = new QScrollArea;
+    trialScroll->setWidgetResizable(true);
+    trialScroll->setFrameShape(QFrame::NoFrame);
+    trialScroll->setWidget(m_trial);
     QDockWidget* trialDock =
-        dock(tr("Trial run"), QStringLiteral("trialDock"), m_trial, Qt::BottomDockWidgetArea);
+        dock(tr("Trial run"), QStringLiteral("trialDock"), trialScroll, Qt::BottomDockWidgetArea);
     QDockWidget* previewDock = dock(tr("Dictionary preview"), QStringLiteral("previewDock"),
                                     m_preview, Qt::BottomDockWidgetArea);
     QDockWidget* historyDock =
         dock(tr("History"), QStringLiteral("historyDock"), undoView, Qt::LeftDockWidgetArea);
     m_routeMapDock =
-        dock(tr("Route map"), QStringLiteral("routeMapDock"), mapNote, Qt::RightDockWidgetArea);
+        dock(tr("Route map"), QStringLiteral("routeMapDock"), m_routeMap, Qt::RightDockWidgetArea);
+    connect(m_routeMapDock, &QDockWidget::visibilityChanged, this, [this](bool visible) {
+        if (visible && m_mapRevision != m_runner->latest().revision)
+            m_mapTimer->start();
+    });
+    // The side columns run the full height; findings and friends sit under the form.
+    setCorner(Qt::BottomLeftCorner, Qt::LeftDockWidgetArea);
+    setCorner(Qt::BottomRightCorner, Qt::RightDockWidgetArea);
     splitDockWidget(outlineDock, historyDock, Qt::Vertical);
-    tabifyDockWidget(rulesDock, m_routeMapDock);
     tabifyDockWidget(findingsDock, trialDock);
     tabifyDockWidget(findingsDock, previewDock);
     findingsDock->raise();
-    rulesDock->raise();
-    splitDockWidget(rulesDock, listsDock, Qt::Vertical);
+    // Right: rules and code lists as tabs above the route map, always in view.
+    splitDockWidget(rulesDock, m_routeMapDock, Qt::Vertical);
     tabifyDockWidget(rulesDock, listsDock);
     rulesDock->raise();
 }
@@ -223,7 +260,9 @@ void EditorWindow::sizeDocks() {
                 Qt::Horizontal);
     resizeDocks({byName("outlineDock"), byName("historyDock")}, {height() * 3 / 4, height() / 6},
                 Qt::Vertical);
-    resizeDocks({byName("findingsDock")}, {height() / 5}, Qt::Vertical);
+    resizeDocks({byName("rulesDock"), byName("routeMapDock")}, {height() * 2 / 5, height() * 3 / 5},
+                Qt::Vertical);
+    resizeDocks({byName("findingsDock")}, {height() / 4}, Qt::Vertical);
 }
 
 void EditorWindow::buildActions() {
@@ -255,7 +294,7 @@ void EditorWindow::buildFileMenu() {
     m_recentMenu = file->addMenu(tr("Open &Recent"));
     rebuildRecentMenu();
     file->addSeparator();
-    add(
+    m_saveAction = add(
         tr("&Save"), QStringLiteral("actionSave"), [this] { save(); }, QKeySequence::Save);
     add(
         tr("Save &As..."), QStringLiteral("actionSaveAs"), [this] { saveAsWithDialog(); },
@@ -263,8 +302,7 @@ void EditorWindow::buildFileMenu() {
     file->addSeparator();
     add(tr("&Import YAML..."), QStringLiteral("actionImportYaml"), [this] { importYaml(); });
     QMenu* exports = file->addMenu(tr("&Export"));
-    exports->addAction(tr("YAML instrument..."), this, &EditorWindow::exportYaml);
-    exports->addAction(tr("Routing graph (DOT)..."), this, &EditorWindow::exportDot);
+    m_exports->addActions(exports);
     exports->addAction(tr("Plain HTML preview..."), this, &EditorWindow::exportPreview);
     file->addSeparator();
     add(
@@ -308,6 +346,7 @@ void EditorWindow::buildEditMenu() {
     connect(down, &QAction::triggered, this, [this] { moveSelected(+1); });
     m_outlineView->addActions({up, down});
     edit->addActions({up, down});
+    m_editActions = {module, item, remove, up, down};
 
     QToolBar* tools = addToolBar(tr("Edit"));
     tools->setObjectName(QStringLiteral("editToolBar"));
@@ -344,12 +383,24 @@ void EditorWindow::buildViewMenu() {
 void EditorWindow::setDarkPalette(bool dark) {
     // Fusion draws every palette role the same on every platform.
     static const QPalette light = QApplication::palette();
-    if (QStyle* fusion = QStyleFactory::create(QStringLiteral("Fusion")))
-        QApplication::setStyle(fusion);
+    if (QApplication::style()->name().compare(u"fusion", Qt::CaseInsensitive) != 0)
+        if (QStyle* fusion = QStyleFactory::create(QStringLiteral("Fusion")))
+            QApplication::setStyle(fusion);
     QApplication::setPalette(dark ? darkPalette() : light);
+    // Widgets under a style sheet were polished with the palette they had then
+    // and do not follow a later application palette; polishing again does.
+    setStyleSheet(QString());
+    setStyleSheet(Icons::styleSheet());
+}
+
+void EditorWindow::forgetFile() {
+    m_lock.reset();
+    m_diskState = DiskState();
+    m_document->setReadOnly(false);
 }
 
 void EditorWindow::newDocument() {
+    forgetFile();
     m_document->reset(emptyInstrument(), QString());
     m_trial->restart();
     m_runner->runNow();
@@ -362,22 +413,74 @@ bool EditorWindow::openFile(const QString& path) {
                              formatDiagnostics(loaded.errors));
         return false;
     }
-    m_document->reset(std::move(*loaded.instrument), QFileInfo(path).absoluteFilePath());
+    const QString absolute = QFileInfo(path).absoluteFilePath();
+    // Reopening our own file keeps our lock; anything else takes its own.
+    const bool reopening = m_lock && m_document->path() == absolute;
+    auto lock = reopening ? std::move(m_lock) : std::make_unique<ProjectLock>(absolute);
+    const ProjectLock::Result held = lock->acquire();
+    forgetFile();
+    if (held.outcome == ProjectLock::Outcome::Acquired)
+        m_lock = std::move(lock);
+    m_diskState = DiskState::of(absolute);
+    m_document->reset(std::move(*loaded.instrument), absolute);
+    m_document->setReadOnly(held.outcome == ProjectLock::Outcome::HeldElsewhere);
     m_outlineView->expandAll();
     m_trial->restart();
     m_runner->runNow();
     addRecent(m_document->path());
     updateTitle();
+    if (held.outcome == ProjectLock::Outcome::HeldElsewhere)
+        m_exports->reportError(
+            tr("Opened read-only"),
+            tr("%1 is already open in another editor (%2).\n\nIt is shown read-only here: "
+               "editing and Save are off. Save As writes a copy under another name.")
+                .arg(QFileInfo(absolute).fileName(), held.holder));
+    else if (held.outcome == ProjectLock::Outcome::Failed)
+        statusBar()->showMessage(tr("Not locked: %1").arg(held.error), 8000);
+    return true;
+}
+
+// A file this window does not hold yet gets its own lock first: saving over a
+// project another editor has open would lose its work.
+bool EditorWindow::lockForSaving(const QString& path, std::unique_ptr<ProjectLock>& lock) {
+    if (m_lock && m_document->path() == path)
+        return true;
+    lock = std::make_unique<ProjectLock>(path);
+    const ProjectLock::Result held = lock->acquire();
+    if (held.outcome == ProjectLock::Outcome::HeldElsewhere) {
+        m_exports->reportError(
+            tr("Cannot save"),
+            tr("%1 is open in another editor (%2).").arg(QFileInfo(path).fileName(), held.holder));
+        return false;
+    }
+    if (held.outcome == ProjectLock::Outcome::Failed)
+        lock.reset(); // a folder without a lock file can still take the project
     return true;
 }
 
 bool EditorWindow::saveTo(const QString& path) {
-    if (const std::optional<Diagnostic> problem =
-            saveInstrumentFile(m_document->instrument(), path)) {
-        QMessageBox::warning(this, tr("Cannot save"), problem->toString());
+    const QString absolute = QFileInfo(path).absoluteFilePath();
+    const bool samePath = absolute == m_document->path();
+    if (samePath && m_document->isReadOnly()) {
+        m_exports->reportError(tr("Cannot save"),
+                               tr("This project is read-only here; use Save As."));
         return false;
     }
-    m_document->setPath(QFileInfo(path).absoluteFilePath());
+    std::unique_ptr<ProjectLock> lock;
+    if (!lockForSaving(absolute, lock))
+        return false;
+    if (samePath && m_diskState.differsFrom(DiskState::of(absolute)) && !m_askOverwrite(absolute))
+        return false;
+    if (const std::optional<Diagnostic> problem =
+            saveInstrumentFile(m_document->instrument(), absolute)) {
+        m_exports->reportError(tr("Cannot save"), problem->toString());
+        return false;
+    }
+    if (lock)
+        m_lock = std::move(lock); // the old file's lock goes with the old name
+    m_diskState = DiskState::of(absolute);
+    m_document->setReadOnly(false);
+    m_document->setPath(absolute);
     m_document->markSaved();
     addRecent(m_document->path());
     statusBar()->showMessage(tr("Saved %1").arg(QFileInfo(path).fileName()), 4000);
@@ -392,9 +495,9 @@ bool EditorWindow::save() {
 }
 
 bool EditorWindow::saveAsWithDialog() {
-    const QString path = QFileDialog::getSaveFileName(
-        this, tr("Save instrument as"), m_document->path(),
-        tr("Routebook project (*.routebook);;YAML instrument (*.yaml *.yml)"));
+    const QString path = m_exports->choosePath(
+        tr("Save instrument as"),
+        tr("Routebook project (*.routebook);;YAML instrument (*.yaml *.yml)"), m_document->path());
     return !path.isEmpty() && saveTo(path);
 }
 
@@ -421,39 +524,15 @@ void EditorWindow::importYaml() {
         return;
     }
     // An import is a new, unsaved project: Save asks where the .routebook goes.
+    forgetFile();
     m_document->reset(std::move(*loaded.instrument), QString());
     m_trial->restart();
     m_runner->runNow();
 }
 
-void EditorWindow::exportYaml() {
-    const QString path = QFileDialog::getSaveFileName(this, tr("Export YAML"), QString(),
-                                                      tr("YAML instrument (*.yaml)"));
-    if (path.isEmpty())
-        return;
-    if (const std::optional<Diagnostic> problem = saveYamlFile(m_document->instrument(), path))
-        QMessageBox::warning(this, tr("Cannot export"), problem->toString());
-}
-
-static bool writeFile(QWidget* parent, const QString& path, const QByteArray& bytes) {
-    QSaveFile file(path);
-    if (file.open(QIODevice::WriteOnly) && file.write(bytes) == bytes.size() && file.commit())
-        return true;
-    QMessageBox::warning(parent, QObject::tr("Cannot export"),
-                         QStringLiteral("%1: %2").arg(path, file.errorString()));
-    return false;
-}
-
-void EditorWindow::exportDot() {
-    const QString path = QFileDialog::getSaveFileName(this, tr("Export routing graph"), QString(),
-                                                      tr("Graphviz DOT (*.dot)"));
-    if (!path.isEmpty())
-        writeFile(this, path, rb::exportDot(CompiledRouting(m_document->instrument())));
-}
-
 void EditorWindow::exportPreview() {
-    const QString path = QFileDialog::getSaveFileName(this, tr("Export plain HTML preview"),
-                                                      QString(), tr("HTML (*.html)"));
+    const QString path =
+        m_exports->choosePath(tr("Export plain HTML preview"), tr("HTML (*.html)"), QString());
     if (path.isEmpty())
         return;
     const QString body =
@@ -461,7 +540,7 @@ void EditorWindow::exportPreview() {
     const QString html = QStringLiteral("<!DOCTYPE html><html><head><meta charset=\"utf-8\">"
                                         "<title>%1</title></head><body>%2</body></html>")
                              .arg(m_document->instrument().title.toHtmlEscaped(), body);
-    writeFile(this, path, html.toUtf8());
+    m_exports->writeBytes(path, html.toUtf8());
 }
 
 bool EditorWindow::maybeSave() {
@@ -488,8 +567,25 @@ void EditorWindow::updateTitle() {
     const QString path = m_document->path();
     const QString name = path.isEmpty() ? tr("Untitled") : QFileInfo(path).fileName();
     setWindowFilePath(path);
-    setWindowTitle(tr("%1[*] - Routebook").arg(name));
+    setWindowTitle(m_document->isReadOnly() ? tr("%1[*] (read-only) - Routebook").arg(name)
+                                            : tr("%1[*] - Routebook").arg(name));
     setWindowModified(m_document->isModified());
+}
+
+void EditorWindow::applyReadOnly(bool readOnly) {
+    for (QAction* action : std::as_const(m_editActions))
+        action->setEnabled(!readOnly);
+    m_saveAction->setEnabled(!readOnly);
+    for (QWidget* panel : {static_cast<QWidget*>(m_form), static_cast<QWidget*>(m_rules),
+                           static_cast<QWidget*>(m_codeLists)})
+        panel->setEnabled(!readOnly);
+    m_outlineView->setDragEnabled(!readOnly);
+    m_outlineView->setAcceptDrops(!readOnly);
+    m_outlineView->setEditTriggers(readOnly ? QAbstractItemView::NoEditTriggers
+                                            : QAbstractItemView::EditKeyPressed |
+                                                  QAbstractItemView::SelectedClicked);
+    m_readOnlyNote->setVisible(readOnly);
+    updateTitle();
 }
 
 void EditorWindow::addRecent(const QString& path) {
@@ -513,7 +609,7 @@ void EditorWindow::rebuildRecentMenu() {
                             if (maybeSave())
                                 openFile(path);
                         })
-            ->setToolTip(path);
+            ->setToolTip(plainToolTip(path));
     m_recentMenu->setEnabled(!recent.isEmpty());
 }
 
@@ -531,6 +627,38 @@ void EditorWindow::select(int module, int item) {
 void EditorWindow::selectionChanged(const QModelIndex& current) {
     m_form->setCurrent(current);
     m_rules->setCurrent(current);
+    if (m_syncingSelection)
+        return;
+    const auto [module, item] = m_outline->locate(current);
+    if (item >= 0)
+        m_routeMap->selectItem(m_outline->flatPosition(module, item)); // does not echo
+}
+
+void EditorWindow::routeMapSelected(int position) {
+    const auto [module, item] = m_outline->rowOfPosition(position);
+    if (module < 0)
+        return;
+    m_syncingSelection = true;
+    select(module, item);
+    m_syncingSelection = false;
+}
+
+void EditorWindow::refreshRouteMap() {
+    const LiveAnalysis& analysis = m_runner->latest();
+    // A map of an older revision than the findings would mislabel positions.
+    if (!m_routeMapDock->isVisible() || analysis.revision != m_document->revision())
+        return;
+    // Drawing 5,000 items takes ~100 ms here: wait for a pause in the editing,
+    // so the redraw never holds up the findings of the next edit.
+    if (m_runner->isBusy()) {
+        m_mapTimer->start();
+        return;
+    }
+    m_routeMap->setRouting(CompiledRouting(m_document->instrument()), &analysis.routing);
+    m_mapRevision = analysis.revision;
+    const auto [module, item] = selectedRow();
+    if (item >= 0)
+        m_routeMap->selectItem(m_outline->flatPosition(module, item));
 }
 
 void EditorWindow::addModule() {
@@ -633,6 +761,7 @@ void EditorWindow::analysisArrived() {
     m_outline->setMarks(analysis.marks);
     m_preview->setAnalysis(analysis);
     m_form->refreshUniverse();
+    m_mapTimer->start();
     const FindingCounts counts = countFindings(analysis.findings);
     m_counts->setText(tr("%1 errors, %2 warnings").arg(counts.errors).arg(counts.warnings));
 }

@@ -3,12 +3,16 @@
 #include <QMainWindow>
 #include <QMessageBox>
 
+#include "storage/DiskState.h"
+
 #include <functional>
+#include <memory>
 
 class QDockWidget;
 class QLabel;
 class QMenu;
 class QTableView;
+class QTimer;
 class QTreeView;
 
 namespace rb {
@@ -16,10 +20,13 @@ namespace rb {
 class AnalysisRunner;
 class CodeListPanel;
 class Document;
+class FileExports;
 class FindingsModel;
 class ItemForm;
 class OutlineModel;
+class ProjectLock;
 class PreviewPanel;
+class RouteMapView;
 class RulesPanel;
 class TrialRunPanel;
 
@@ -47,6 +54,18 @@ public:
         m_askSave = std::move(ask);
     }
 
+    // Where Save As and the exports write, and how errors are shown (tests replace
+    // both; default: a file dialog and a warning box).
+    FileExports* fileExports() const { return m_exports; }
+
+    // Asked before Save overwrites a file another program changed since this
+    // editor opened or last saved it (tests replace it; default: a Yes/No box).
+    void setOverwriteQuestion(std::function<bool(const QString& path)> ask) {
+        m_askOverwrite = std::move(ask);
+    }
+    // Read-only: the project is open in another editor (edits and Save off).
+    bool isReadOnly() const;
+
     Document* document() const { return m_document; }
     AnalysisRunner* analysisRunner() const { return m_runner; }
     OutlineModel* outlineModel() const { return m_outline; }
@@ -58,8 +77,11 @@ public:
     PreviewPanel* previewPanel() const { return m_preview; }
     FindingsModel* findingsModel() const { return m_findings; }
     QTableView* findingsView() const { return m_findingsView; }
-    // The dock the route map will live in.
     QDockWidget* routeMapDock() const { return m_routeMapDock; }
+    RouteMapView* routeMapView() const { return m_routeMap; }
+    // The revision the route map was last drawn for (kNever before the first drawing).
+    static constexpr quint64 kNever = ~quint64(0);
+    quint64 routeMapRevision() const { return m_mapRevision; }
 
     void addModule();
     void addItem();
@@ -85,15 +107,18 @@ private:
     bool save();
     bool saveAsWithDialog();
     void importYaml();
-    void exportYaml();
-    void exportDot();
     void exportPreview();
     bool maybeSave();
     void updateTitle();
+    void applyReadOnly(bool readOnly);
+    void forgetFile();
+    bool lockForSaving(const QString& path, std::unique_ptr<ProjectLock>& lock);
     void addRecent(const QString& path);
     void rebuildRecentMenu();
     void selectionChanged(const QModelIndex& current);
     void analysisArrived();
+    void refreshRouteMap();
+    void routeMapSelected(int position);
     QString universeText(int position) const;
     std::pair<int, int> selectedRow() const;
     void select(int module, int item);
@@ -109,12 +134,23 @@ private:
     CodeListPanel* m_codeLists;
     TrialRunPanel* m_trial;
     PreviewPanel* m_preview;
+    FileExports* m_exports;
     QDockWidget* m_routeMapDock = nullptr;
+    RouteMapView* m_routeMap;
+    QTimer* m_mapTimer;
+    quint64 m_mapRevision = kNever;
+    bool m_syncingSelection = false; // outline <-> map, so neither echoes the other
     QMenu* m_viewMenu = nullptr;
     QMenu* m_recentMenu = nullptr;
     QLabel* m_counts;
     bool m_docksSized = false;
     std::function<QMessageBox::StandardButton()> m_askSave;
+    std::function<bool(const QString&)> m_askOverwrite;
+    std::unique_ptr<ProjectLock> m_lock; // held while this window edits its file
+    DiskState m_diskState;               // the file as last read or written here
+    QList<QAction*> m_editActions;       // off while read-only
+    QAction* m_saveAction = nullptr;
+    QLabel* m_readOnlyNote;
 };
 
 } // namespace rb

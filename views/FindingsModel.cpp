@@ -1,6 +1,7 @@
 #include "FindingsModel.h"
 
 #include "Icons.h"
+#include "PlainText.h"
 
 namespace rb {
 
@@ -45,7 +46,7 @@ QVariant FindingsModel::data(const QModelIndex& index, int role) const {
     if (role == Qt::DecorationRole && index.column() == MessageColumn)
         return Icons::get(f.severity == Severity::Error ? Icons::Error : Icons::Warning);
     if (role == Qt::ToolTipRole)
-        return QStringLiteral("%1 (%2)").arg(f.message, f.id());
+        return plainToolTip(QStringLiteral("%1 (%2)").arg(f.message, f.id()));
     if (role != Qt::DisplayRole)
         return {};
     switch (index.column()) {

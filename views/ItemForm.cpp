@@ -4,6 +4,7 @@
 #include "ConditionField.h"
 #include "Icons.h"
 #include "OutlineModel.h"
+#include "PlainText.h"
 #include "edit/Cascades.h"
 #include "edit/Document.h"
 #include "edit/SetAttributeCommand.h"
@@ -182,7 +183,7 @@ QWidget* ItemForm::buildItemPage() {
             [this](const QString& t) { pushItem(int(Field::ItemAskIf), t); });
     form->addRow(tr("&Asked if"), m_askIf);
 
-    m_universe = new QLabel;
+    m_universe = plainLabel(new QLabel);
     m_universe->setObjectName(QStringLiteral("panelNote"));
     m_universe->setWordWrap(true);
     m_universe->setTextInteractionFlags(Qt::TextSelectableByMouse);

@@ -1,12 +1,15 @@
 #include "OutlineModel.h"
 
 #include "Icons.h"
+#include "PlainText.h"
 #include "edit/Cascades.h"
 #include "edit/Document.h"
 #include "edit/SetAttributeCommand.h"
 #include "edit/StructureCommands.h"
 
 #include <QMimeData>
+
+#include <algorithm>
 
 namespace rb {
 
@@ -32,6 +35,21 @@ void OutlineModel::rebuildStarts() {
 
 int OutlineModel::flatPosition(int module, int item) const {
     return module < 0 || module >= m_moduleStart.size() ? -1 : m_moduleStart.at(module) + item;
+}
+
+std::pair<int, int> OutlineModel::rowOfPosition(int position) const {
+    if (position < 0)
+        return {-1, -1};
+    // The last module starting at or before `position` (empty modules share a start).
+    const auto after = std::upper_bound(m_moduleStart.begin(), m_moduleStart.end(), position);
+    for (int module = int(after - m_moduleStart.begin()) - 1; module >= 0; --module) {
+        const int item = position - m_moduleStart.at(module);
+        if (item < m_document->instrument().modules.at(module).items.size())
+            return {module, item};
+        if (item > 0)
+            break;
+    }
+    return {-1, -1};
 }
 
 void OutlineModel::setMarks(const QList<ItemMarks>& marks) {
@@ -116,7 +134,7 @@ QVariant OutlineModel::moduleData(int module, int column, int role) const {
     if (role == Qt::DecorationRole && column == NameColumn)
         return Icons::get(Icons::Module);
     if (role == Qt::ToolTipRole && m.askIf)
-        return tr("Module asked if %1").arg(*m.askIf);
+        return plainToolTip(tr("Module asked if %1").arg(*m.askIf));
     return {};
 }
 
@@ -153,7 +171,7 @@ QVariant OutlineModel::itemData(int module, int item, int column, int role) cons
             if (marks.inLoop)
                 tip += u'\n' + tr("Part of a routing loop");
         }
-        return tip;
+        return plainToolTip(tip);
     }
     case Qt::ForegroundRole:
         if (position >= 0 && position < m_marks.size() && m_marks.at(position).hasError)

@@ -46,6 +46,8 @@ public:
     // The index of an item (or, failing that, a module) by name, any case.
     QModelIndex indexOfName(const QString& name) const;
     int flatPosition(int module, int item) const;
+    // The inverse of flatPosition: (module, item), or (-1, -1) out of range.
+    std::pair<int, int> rowOfPosition(int position) const;
 
 private:
     void before(const ChangeEvent& event);

@@ -1,5 +1,6 @@
 #include "PreviewPanel.h"
 
+#include "PlainText.h"
 #include "PreviewHtml.h"
 #include "edit/Document.h"
 
@@ -11,7 +12,8 @@
 namespace rb {
 
 PreviewPanel::PreviewPanel(Document* document, QWidget* parent)
-    : QWidget(parent), m_document(document), m_caption(new QLabel), m_browser(new QTextBrowser) {
+    : QWidget(parent), m_document(document), m_caption(plainLabel(new QLabel)),
+      m_browser(new QTextBrowser) {
     m_caption->setObjectName(QStringLiteral("panelNote"));
     m_caption->setWordWrap(true);
     m_browser->setObjectName(QStringLiteral("preview"));

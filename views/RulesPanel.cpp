@@ -3,6 +3,7 @@
 #include "ConditionField.h"
 #include "Icons.h"
 #include "OutlineModel.h"
+#include "PlainText.h"
 #include "RulesModel.h"
 #include "edit/Document.h"
 
@@ -24,7 +25,7 @@ RulesPanel::RulesPanel(Document* document, OutlineModel* outline, QWidget* paren
       m_add(new QPushButton(Icons::get(Icons::Add), tr("Add rule"))),
       m_remove(new QPushButton(Icons::get(Icons::Remove), tr("Delete"))),
       m_up(new QPushButton(Icons::get(Icons::Up), QString())),
-      m_down(new QPushButton(Icons::get(Icons::Down), QString())), m_note(new QLabel) {
+      m_down(new QPushButton(Icons::get(Icons::Down), QString())), m_note(plainLabel(new QLabel)) {
     m_table->setObjectName(QStringLiteral("rulesTable"));
     m_table->setModel(m_model);
     m_table->setSelectionBehavior(QAbstractItemView::SelectRows);

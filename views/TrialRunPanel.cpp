@@ -1,6 +1,7 @@
 #include "TrialRunPanel.h"
 
 #include "Icons.h"
+#include "PlainText.h"
 #include "edit/Document.h"
 #include "edit/SetAttributeCommand.h"
 
@@ -20,11 +21,12 @@ enum Page { CodesPage, MultiPage, ValuePage, NothingPage };
 }
 
 TrialRunPanel::TrialRunPanel(Document* document, QWidget* parent)
-    : QWidget(parent), m_document(document), m_question(new QLabel), m_detail(new QLabel),
-      m_inputs(new QStackedWidget), m_codes(new QComboBox), m_multi(new QListWidget),
-      m_value(new QLineEdit), m_answer(new QPushButton(Icons::get(Icons::Play), tr("&Answer"))),
-      m_back(new QPushButton(Icons::get(Icons::Back), tr("Step &back"))), m_error(new QLabel),
-      m_path(new QListWidget), m_respondentName(new QLineEdit),
+    : QWidget(parent), m_document(document), m_question(plainLabel(new QLabel)),
+      m_detail(plainLabel(new QLabel)), m_inputs(new QStackedWidget), m_codes(new QComboBox),
+      m_multi(new QListWidget), m_value(new QLineEdit),
+      m_answer(new QPushButton(Icons::get(Icons::Play), tr("&Answer"))),
+      m_back(new QPushButton(Icons::get(Icons::Back), tr("Step &back"))),
+      m_error(plainLabel(new QLabel)), m_path(new QListWidget), m_respondentName(new QLineEdit),
       m_save(new QPushButton(tr("Save as test respondent"))) {
     m_question->setObjectName(QStringLiteral("trialQuestion"));
     m_question->setWordWrap(true);

@@ -1,7 +1,7 @@
 #include "Dictionary.h"
 
 #include "check/InstrumentCheck.h"
-#include "export/SvgExport.h"
+#include "layout/SvgWriter.h"
 
 #include <QHash>
 #include <QSet>
@@ -241,8 +241,17 @@ Dictionary buildDictionary(const CompiledRouting& routing, const RoutingAnalysis
 }
 
 Dictionary buildDictionary(const CompiledRouting& routing, const QDateTime& generated) {
-    return buildDictionary(routing, analyzeRouting(routing), checkInstrument(routing), generated,
-                           exportSvg(routing));
+    // Laid out once for both the SVG (HTML) and the drawing (PDF); the same
+    // steps as exportSvg, so the picture equals `routebook export --format svg`.
+    RouteMapDrawing map;
+    map.graph = layout::RouteGraph::fromRouting(routing);
+    map.layout = layout::layoutRouteGraph(map.graph);
+    const QByteArray svg =
+        layout::writeRouteMapSvg(map.graph, map.layout, routing.instrument().title);
+    Dictionary d =
+        buildDictionary(routing, analyzeRouting(routing), checkInstrument(routing), generated, svg);
+    d.routeMap = std::move(map);
+    return d;
 }
 
 GenerationTime generationTime() {

@@ -1,5 +1,7 @@
 #pragma once
 
+#include "RouteMapPainter.h"
+
 #include "analysis/RoutingAnalysis.h"
 #include "instrument/Instrument.h"
 #include "util/Diagnostic.h"
@@ -100,6 +102,8 @@ struct Dictionary {
     QList<DictionaryModule> modules;
     QList<DictionaryEntry> entries;
     QByteArray routeMapSvg; // empty when no picture is available
+    // The same map laid out, for renderers that draw it themselves (PDF).
+    std::optional<RouteMapDrawing> routeMap;
 };
 
 // Builds the dictionary from the analysis (universes are never recomputed here).

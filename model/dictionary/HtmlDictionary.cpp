@@ -147,6 +147,10 @@ private:
                      QString::fromLatin1(m_d.routeMapSvg.toBase64()) + u"\"></div>\n"_s;
             return;
         }
+        if (!browser() && m_d.routeMap) {
+            m_out += u"<p>The route map is drawn on the last pages of this document.</p>\n"_s;
+            return;
+        }
         m_out +=
             u"<p class=\"placeholder\">[Route map: "_s +
             (m_d.routeMapSvg.isEmpty()

@@ -8,7 +8,6 @@ AnalysisRunner::AnalysisRunner(Document* document, QObject* parent)
     : QObject(parent), m_document(document) {
     m_pool.setMaxThreadCount(1);
     m_timer.setSingleShot(true);
-    m_timer.setInterval(40);
     connect(&m_timer, &QTimer::timeout, this, &AnalysisRunner::start);
     connect(document, &Document::changed, this, &AnalysisRunner::schedule);
 }
@@ -23,7 +22,9 @@ void AnalysisRunner::runNow() {
 }
 
 void AnalysisRunner::schedule() {
-    m_timer.start();
+    // Idle: no delay (the measured 40 ms was a fifth of the edit-to-findings
+    // time on 5,000 items). Busy: the running job's result will be stale anyway.
+    m_timer.start(m_running ? m_delay : 0);
 }
 
 void AnalysisRunner::start() {

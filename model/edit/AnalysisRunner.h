@@ -11,10 +11,12 @@ namespace rb {
 class Document;
 
 // Reruns the checks and the routing analysis after every change of a
-// Document, on a worker thread, so the window never waits. Changes that come
-// in quick succession (typing) are coalesced by a short delay; one job runs at
-// a time; a result whose revision is no longer the document's is dropped and
-// the analysis is started again on the current instrument.
+// Document, on a worker thread, so the window never waits. When idle, a change
+// starts a job on the next turn of the event loop (once the whole command has
+// applied), so a single edit waits for nothing; changes arriving while a job
+// runs are coalesced: one job runs at a time, a result whose revision is no
+// longer the document's is dropped and the analysis starts again on the
+// current instrument.
 class AnalysisRunner : public QObject {
     Q_OBJECT
 public:
@@ -23,8 +25,8 @@ public:
 
     const LiveAnalysis& latest() const { return m_latest; }
     bool isBusy() const { return m_running || m_timer.isActive(); }
-    // The delay that coalesces quick edits (default 40 ms).
-    void setDelay(int milliseconds) { m_timer.setInterval(milliseconds); }
+    // How long edits arriving while a job runs wait to be coalesced (default 40 ms).
+    void setDelay(int milliseconds) { m_delay = milliseconds; }
     // Starts at once (after a reset, say), skipping the delay.
     void runNow();
 
@@ -42,6 +44,7 @@ private:
     QTimer m_timer;
     LiveAnalysis m_latest;
     bool m_running = false;
+    int m_delay = 40;
 };
 
 } // namespace rb

@@ -17,6 +17,21 @@ Document::Document(QObject* parent) : QObject(parent) {
             [this](bool clean) { emit modifiedChanged(!clean); });
 }
 
+void Document::push(QUndoCommand* command) {
+    if (m_readOnly) {
+        delete command;
+        return;
+    }
+    m_undoStack.push(command);
+}
+
+void Document::setReadOnly(bool readOnly) {
+    if (readOnly == m_readOnly)
+        return;
+    m_readOnly = readOnly;
+    emit readOnlyChanged(readOnly);
+}
+
 void Document::setPath(const QString& path) {
     if (path == m_path)
         return;

@@ -29,8 +29,13 @@ public:
 
     // Replaces the instrument (new or opened file) and clears the history.
     void reset(Instrument instrument, const QString& path);
-    // Takes ownership and executes (QUndoStack::push).
-    void push(QUndoCommand* command) { m_undoStack.push(command); }
+    // Takes ownership and executes (QUndoStack::push); a read-only document
+    // drops the command unexecuted.
+    void push(QUndoCommand* command);
+    // Read-only: the project is open in another editor. The views disable
+    // editing; this is the last line, so no panel can change it by accident.
+    bool isReadOnly() const { return m_readOnly; }
+    void setReadOnly(bool readOnly);
 
     // Raw mutators for commands only; indices must be valid.
     AttributeValue attribute(const AttributeKey& key) const;
@@ -49,6 +54,7 @@ signals:
     void changed(const rb::ChangeEvent& event);
     void pathChanged(const QString& path);
     void modifiedChanged(bool modified);
+    void readOnlyChanged(bool readOnly);
 
 private:
     void announce(const ChangeEvent& event) { emit aboutToChange(event); }
@@ -58,6 +64,7 @@ private:
     QString m_path;
     QUndoStack m_undoStack;
     quint64 m_revision = 0;
+    bool m_readOnly = false;
 };
 
 } // namespace rb

@@ -64,6 +64,7 @@ LiveAnalysis analyseInstrument(const Instrument& instrument, quint64 revision) {
             if (position >= 0 && position < result.marks.size())
                 result.marks[position].inLoop = true;
     markFindings(result.marks, routing.index(), result.findings);
+    result.routing = routingAnalysis;
     return result;
 }
 

@@ -21,6 +21,7 @@ struct LiveAnalysis {
     quint64 revision = 0; // the Document revision it was computed for
     Findings findings;    // check + routing analysis, sorted, no duplicate ids
     QList<ItemMarks> marks;
+    RoutingAnalysis routing; // the exact universes, for the route map's markers
 };
 
 LiveAnalysis analyseInstrument(const Instrument& instrument, quint64 revision);

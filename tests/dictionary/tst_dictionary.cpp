@@ -11,6 +11,7 @@
 #include "dictionary/HtmlDictionary.h"
 #include "dictionary/MarkdownDictionary.h"
 #include "dictionary/PdfDictionary.h"
+#include "dictionary/PdfReproducible.h"
 #include "dictionary/TextEscape.h"
 
 #include <QFile>
@@ -143,6 +144,9 @@ private slots:
     void pdfPageSizes();
     void pdfHoldsNamesAndUniverses_data();
     void pdfHoldsNamesAndUniverses();
+    void pdfDrawsTheRouteMap();
+    void pdfDatesAreStampedInPlace();
+    void pdfIsReproducible();
 
     // --- command line ----------------------------------------------------
     void cliExportsEqualModel_data();
@@ -667,6 +671,99 @@ void TestDictionary::pdfHoldsNamesAndUniverses() {
         if (e.isConditional())
             QVERIFY2(text.contains(squeezed(e.askedIf)), qPrintable(e.askedIf));
     }
+}
+
+namespace {
+
+int pdfPages(const QString& path) {
+    const QString info = QString::fromUtf8(runTool(u"pdfinfo"_s, {path}).out);
+    static const QRegularExpression pages(u"Pages:\\s+(\\d+)"_s);
+    const auto m = pages.match(info);
+    return m.hasMatch() ? m.captured(1).toInt() : -1;
+}
+
+QString pdfPageText(const QString& path, int page) {
+    const QString n = QString::number(page);
+    return QString::fromUtf8(
+        runTool(u"pdftotext"_s, {u"-f"_s, n, u"-l"_s, n, u"-enc"_s, u"UTF-8"_s, path, u"-"_s}).out);
+}
+
+} // namespace
+
+void TestDictionary::pdfDrawsTheRouteMap() {
+    if (!toolExists(u"pdfinfo"_s) || !toolExists(u"pdftotext"_s))
+        QSKIP("pdfinfo / pdftotext (poppler-utils) are not installed: SKIPPED, not passed");
+    QString error;
+    const auto instrument = loadInstrument(kGarden, &error);
+    QVERIFY2(instrument, qPrintable(error));
+    const rb::CompiledRouting routing(*instrument);
+    rb::Dictionary d = rb::buildDictionary(routing, fixedTime()); // with the map laid out
+    QVERIFY(d.routeMap.has_value());
+    QTemporaryDir dir;
+    const QString with = dir.filePath(u"with.pdf"_s), without = dir.filePath(u"without.pdf"_s);
+    QVERIFY(writeFile(with, rb::exportPdfDictionary(d, rb::PdfPageSize::A4).bytes));
+    d.routeMap.reset();
+    QVERIFY(writeFile(without, rb::exportPdfDictionary(d, rb::PdfPageSize::A4).bytes));
+    // The garden map is 6 items + START + END in one column, well under one A4
+    // page high at 96 px per inch: exactly one page more.
+    const int pages = pdfPages(with);
+    QCOMPARE(pages, pdfPages(without) + 1);
+    // The last page is the map: its title, the START and END nodes, every item
+    // name and the one rule's condition, drawn as (searchable) text.
+    const QString map = pdfPageText(with, pages);
+    for (const QString& word : {u"Route map"_s, u"START"_s, u"END"_s, u"has_garden"_s,
+                                u"rain_barrel"_s, u"thanks"_s, u"has_garden <> 1"_s})
+        QVERIFY2(map.contains(word), qPrintable(word + u" not in: "_s + map));
+    QVERIFY(!pdfPageText(without, pages - 1).contains(u"START"_s));
+}
+
+void TestDictionary::pdfDatesAreStampedInPlace() {
+    // 1700000000 s after 1970-01-01 UTC: 19675 days (to 2023-11-14) and
+    // 80000 s (22:13:20), worked out by hand.
+    const QDateTime time = QDateTime::fromSecsSinceEpoch(1700000000, Qt::UTC);
+    const QByteArray pdf = "1 0 obj\n<< /CreationDate (D:20250102030405+01'00')\n"
+                           "/ModDate (D:20250102030405Z) >>\nendobj\n"
+                           "trailer << /ID [<0123456789abcdef0123456789abcdef> "
+                           "<fedcba9876543210fedcba9876543210>] >>\n";
+    const QByteArray stamped = rb::stampPdfDates(pdf, time);
+    QCOMPARE(stamped.size(), pdf.size()); // nothing moves: xref offsets stay valid
+    QVERIFY(stamped.contains("/CreationDate (D:20231114221320+00'00')"));
+    QVERIFY(stamped.contains("/ModDate (D:20231114221320Z)"));
+    static const QRegularExpression id(u"/ID \\[<([0-9a-f]{32})> <([0-9a-f]{32})>\\]"_s);
+    const auto m = id.match(QString::fromLatin1(stamped));
+    QVERIFY2(m.hasMatch(), stamped.constData());
+    QVERIFY(m.captured(1) != u"0123456789abcdef0123456789abcdef"_s);
+    // The identifier depends on the rest of the file only, not on the old random one.
+    QByteArray otherId = pdf;
+    otherId.replace("0123456789abcdef0123456789abcdef", "ffffffffffffffffffffffffffffffff");
+    QCOMPARE(rb::stampPdfDates(otherId, time), stamped);
+}
+
+// Two runs of the command line (two processes, so two random hash seeds and
+// two clock readings) write the same PDF bytes for one SOURCE_DATE_EPOCH.
+void TestDictionary::pdfIsReproducible() {
+    QTemporaryDir dir;
+    QProcessEnvironment env = QProcessEnvironment::systemEnvironment();
+    env.insert(u"QT_QPA_PLATFORM"_s, u"offscreen"_s);
+    env.insert(u"SOURCE_DATE_EPOCH"_s, QString::number(kEpoch));
+    QList<QByteArray> runs;
+    for (const QString& name : {u"first.pdf"_s, u"second.pdf"_s}) {
+        const QString out = dir.filePath(name);
+        const ToolRun run =
+            runTool(QStringLiteral(ROUTEBOOK_BINARY),
+                    {u"export"_s, kGarden, u"--format"_s, u"pdf"_s, u"-o"_s, out}, env);
+        QVERIFY2(run.exitCode == 0, run.err.constData());
+        runs.append(readFile(out));
+        QTest::qWait(1100); // a different wall-clock second for the second run
+    }
+    QVERIFY(runs.at(0).startsWith("%PDF-"));
+    QCOMPARE(runs.at(1), runs.at(0));
+    QVERIFY(runs.at(0).contains("/CreationDate (D:20231114221320"));
+    if (!toolExists(u"qpdf"_s))
+        QSKIP("qpdf is not installed: structure check SKIPPED, not passed");
+    const ToolRun check = runTool(u"qpdf"_s, {u"--check"_s, dir.filePath(u"first.pdf"_s)});
+    QVERIFY2(check.exitCode == 0, check.out.constData());
+    QVERIFY(check.out.contains("No syntax or stream encoding errors found"));
 }
 
 // ---------------------------------------------------------------------------

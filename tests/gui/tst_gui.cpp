@@ -7,6 +7,7 @@
 #include "CodeTableModel.h"
 #include "ConditionField.h"
 #include "EditorWindow.h"
+#include "FileExports.h"
 #include "FindingsModel.h"
 #include "ItemForm.h"
 #include "OutlineModel.h"
@@ -269,7 +270,13 @@ void TestGui::buildFromEmpty() {
         QVERIFY(!w.isWindowModified());
         QVERIFY(w.windowTitle().startsWith(name));
         EditorWindow reopened;
+        // `w` still holds the file: the second window says so and opens it read-only.
+        QStringList messages;
+        reopened.fileExports()->setErrorReporter(
+            [&](const QString&, const QString& message) { messages.append(message); });
         QVERIFY(reopened.openFile(path));
+        QCOMPARE(messages.size(), 1);
+        QVERIFY(reopened.isReadOnly());
         QCOMPARE(reopened.document()->instrument(), expected);
         QCOMPARE(reopened.outlineModel()->rowCount(), 1);
     }
@@ -457,6 +464,8 @@ void TestGui::screenshots() {
         if (item.isValid())
             w.outlineView()->setCurrentIndex(item);
         QTest::qWait(400); // the preview refresh is coalesced
+        // The route map is drawn a little after the findings.
+        QTRY_VERIFY_WITH_TIMEOUT(w.routeMapRevision() == w.document()->revision(), 10000);
         const QString file = out + (dark ? u"/main-window-dark.png"_s : u"/main-window.png"_s);
         QVERIFY(w.grab().save(file));
         w.setDarkPalette(false);

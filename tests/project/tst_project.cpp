@@ -1,6 +1,7 @@
 // Tests of the SQLite project file (.routebook): lossless round trips, refusal
 // of files that are not ours, read-only loading, one-transaction saves and
 // recovery from an interrupted save.
+#include "ProjectLockTests.h"
 #include "ProjectTestTools.h"
 
 #include "storage/ProjectFile.h"
@@ -584,5 +585,11 @@ void TestProject::statementFailureSticks() {
     QCOMPARE(outOfRange.step(), rb::SqliteStatement::Step::Error);
 }
 
-QTEST_GUILESS_MAIN(TestProject)
+// Two test classes: the project file (here) and its lock and disk state.
+int main(int argc, char** argv) {
+    QCoreApplication app(argc, argv);
+    TestProject project;
+    const int failed = QTest::qExec(&project, argc, argv);
+    return failed + runProjectLockTests(argc, argv);
+}
 #include "tst_project.moc"

@@ -1,5 +1,7 @@
 #include "RouteMapItems.h"
 
+#include "PlainText.h"
+
 #include <QPainter>
 #include <QStyleOptionGraphicsItem>
 
@@ -48,7 +50,7 @@ RouteNodeItem::RouteNodeItem(int node, const layout::RouteNode& data, const QRec
         tip += QStringLiteral("\nunreachable: no path from START");
     if (data.looping)
         tip += QStringLiteral("\non a routing loop");
-    setToolTip(tip);
+    setToolTip(plainToolTip(tip));
 }
 
 QRectF RouteNodeItem::boundingRect() const {
@@ -131,7 +133,7 @@ RouteEdgeItem::RouteEdgeItem(int edge, const layout::RouteEdge& data,
     QString tip = fromName + QStringLiteral(" \u2192 ") + toName;
     if (!data.condition.isEmpty())
         tip += QStringLiteral("\n") + data.condition;
-    setToolTip(tip);
+    setToolTip(plainToolTip(tip));
 }
 
 QPen RouteEdgeItem::basePen() const {
@@ -196,7 +198,8 @@ void RouteEdgeItem::paint(QPainter* painter, const QStyleOptionGraphicsItem*, QW
 ModuleBandItem::ModuleBandItem(const layout::ModuleSpan& span, const QRectF& rect)
     : QGraphicsRectItem(rect), m_title(span.title.isEmpty() ? span.name : span.title) {
     setZValue(0);
-    setToolTip(span.title.isEmpty() ? span.name : span.name + QStringLiteral(": ") + span.title);
+    setToolTip(plainToolTip(span.title.isEmpty() ? span.name
+                                                 : span.name + QStringLiteral(": ") + span.title));
 }
 
 void ModuleBandItem::paint(QPainter* painter, const QStyleOptionGraphicsItem*, QWidget*) {
