@@ -1,5 +1,7 @@
 #include "ConditionAlgebra.h"
 
+#include <QHash>
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -220,14 +222,16 @@ void ConditionAlgebra::buildValueVar(int position, const ItemAtoms& atoms) {
     empty.empty = true;
     empty.signature = signature(position, atoms, cond::CellValue::notPresented());
     var.cells.append(empty);
+    // Cells by signature: an item compared with thousands of values has
+    // thousands of pieces, so finding a piece's cell must not scan them all.
+    QHash<QList<bool>, int> cellOf{{empty.signature, 0}};
     for (const ValuePiece& piece : candidatePieces(position, atoms)) {
         const QList<bool> sig = signature(position, atoms, piece.sample);
-        auto same = std::find_if(var.cells.begin(), var.cells.end(),
-                                 [&](const ValueCell& c) { return c.signature == sig; });
-        if (same != var.cells.end()) {
-            same->pieces.append(piece);
+        if (const auto same = cellOf.constFind(sig); same != cellOf.constEnd()) {
+            var.cells[*same].pieces.append(piece);
             continue;
         }
+        cellOf.insert(sig, int(var.cells.size()));
         ValueCell cell;
         cell.answered = sig.at(1);
         cell.pieces.append(piece);

@@ -246,7 +246,7 @@ void RoutingAnalyzer::preferShorterForms(Sop& sop, int on, const UniversePrinter
             if (role == DecisionVar::Role::MultiHas || !l.cells.test(0) || l.cells.count() < 2)
                 continue;
             SopLiteral positive = l;
-            positive.cells.words[0] &= ~std::uint64_t(1);
+            positive.cells.reset(0);
             const QString withEmpty = printer.literal(l), without = printer.literal(positive);
             // Value lists: fewer elements wins; the status of a multi item: the shorter text.
             if (role == DecisionVar::Role::Value ? elementCount(without) > elementCount(withEmpty)
