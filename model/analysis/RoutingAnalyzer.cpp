@@ -40,6 +40,17 @@ int RoutingAnalyzer::filterNode(int position) {
     return f;
 }
 
+// The filters are joined with an `and` evaluated left to right, module's
+// first (as the simulator does): the item's own filter is evaluated only where
+// the module's holds.
+int RoutingAnalyzer::itemFilterEvaluated(int position) {
+    const CompiledRouting::CompiledItem& item = m_routing.item(position);
+    if (!item.hasModuleFilter)
+        return m_reached.at(position);
+    return m_algebra.mdd().andOp(m_reached.at(position),
+                                 m_algebra.conditionAt(*item.filters.first(), position));
+}
+
 int RoutingAnalyzer::gapEmpty(int from, int to) {
     Mdd& mdd = m_algebra.mdd();
     int acc = Mdd::True;
@@ -470,7 +481,7 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
         const Item& item = *m_routing.index().at(i).item;
         if (item.askIf)
             if (cond::ExprPtr expr = m_routing.compileCondition(*item.askIf))
-                sites.append({expr, i, m_reached[i], u"ask_if"_s, false, i});
+                sites.append({expr, i, itemFilterEvaluated(i), u"ask_if"_s, false, i});
         for (int k = 0; k < item.routing.size(); ++k) {
             const CompiledRouting::CompiledRule& rule = m_routing.item(i).rules.at(k);
             if (rule.usable && rule.condition)
@@ -508,6 +519,7 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
             f.item.clear();
         }
         f.column = column;
+        m_readWitness.insert(f.id(), witness);
         const QString path = witnessPath(witness, site.position).value_or(QString());
         f.message = u"the condition reads "_s + empties.first() +
                     u", which is empty (not presented) on some paths that reach it, e.g. after "_s +
@@ -517,6 +529,13 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
                 u"; also reads "_s + empties.mid(1).join(u", "_s) + u", which can be empty there"_s;
         out.append(f);
     }
+}
+
+std::optional<std::vector<int>> RoutingAnalyzer::unaskedReadWitness(const QString& id) const {
+    const auto it = m_readWitness.constFind(id);
+    if (it == m_readWitness.constEnd())
+        return std::nullopt;
+    return m_algebra.mdd().satOne(*it);
 }
 
 Findings RoutingAnalyzer::findings() {

@@ -11,10 +11,14 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
     m_codes.reserve(m_index.size());
     for (const ItemIndex::Entry& entry : m_index.entries()) {
         CompiledItem compiled;
-        for (const std::optional<QString>& filter : {entry.module->askIf, entry.item->askIf})
-            if (filter)
-                if (cond::ExprPtr expr = compileCondition(*filter))
-                    compiled.filters.append(expr);
+        if (entry.module->askIf)
+            if (cond::ExprPtr expr = compileCondition(*entry.module->askIf)) {
+                compiled.filters.append(expr);
+                compiled.hasModuleFilter = true;
+            }
+        if (entry.item->askIf)
+            if (cond::ExprPtr expr = compileCondition(*entry.item->askIf))
+                compiled.filters.append(expr);
         for (const Rule& rule : entry.item->routing) {
             CompiledRule c;
             c.target = m_index.resolveTarget(rule.target);

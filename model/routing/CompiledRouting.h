@@ -20,9 +20,11 @@ public:
         bool usable = true;      // false: broken condition or unknown target, never fires
     };
     struct CompiledItem {
-        // Filters in effect: the item's own and its module's (joined with and);
-        // broken ones are left out.
+        // Filters in effect, module's first, then the item's own, joined with an
+        // `and` evaluated left to right: the item's filter is only evaluated (and
+        // only reads its items) where the module's holds. Broken ones are left out.
         QList<cond::ExprPtr> filters;
+        bool hasModuleFilter = false; // filters.first() is the module's
         QList<CompiledRule> rules;
     };
 
