@@ -84,7 +84,9 @@ std::optional<ValuePiece> intervalPiece(double low, double high, bool integer) {
 
 ConditionAlgebra::ConditionAlgebra(const CompiledRouting& routing,
                                    const QList<cond::ExprPtr>& extra)
-    : m_routing(&routing) {
+    : m_routing(&routing), m_varsOfPosition(std::size_t(routing.itemCount())),
+      m_empty(std::size_t(routing.itemCount()), Mdd::True),
+      m_presented(std::size_t(routing.itemCount()), Mdd::True) {
     for (int p = 0; p < routing.itemCount(); ++p) {
         const CompiledRouting::CompiledItem& item = routing.item(p);
         for (const cond::ExprPtr& f : item.filters)
@@ -314,11 +316,11 @@ void ConditionAlgebra::buildMultiVars(int position, const ItemAtoms& atoms) {
 }
 
 int ConditionAlgebra::emptyOf(int position) const {
-    return m_empty.value(position, Mdd::True);
+    return m_empty.at(position);
 }
 
 int ConditionAlgebra::presentedOf(int position) const {
-    return m_presented.value(position, Mdd::True);
+    return m_presented.at(position);
 }
 
 int ConditionAlgebra::conditionText(const QString& text) {
