@@ -57,6 +57,7 @@ private slots:
     void findings();
     void cleanInstrumentHasNoFindings();
     void findingIdsAndOrder();
+    void duplicateNameMessages();
     void codeListFindings();
     void testRespondentReplay();
     void routingMistakesFullList();
@@ -179,6 +180,26 @@ void TestCheck::cleanInstrumentHasNoFindings() {
         "        routing: [{if: \"owns in (2, 9)\", goto: END}]\n"
         "      - {name: size, text: \"Size in square metres?\", type: integer, range: [1, 5000]}\n";
     QCOMPARE(summarize(findingsOf(instrumentYaml(items))), QStringList());
+}
+
+// The duplicate-name message names both holders. "tools" is multi with
+// codes 1, 2, 9 (yes_no), so it claims tools_1, tools_2 and tools_9; the item
+// TOOLS_2 clashes with the variable, and Owns with the item owns.
+void TestCheck::duplicateNameMessages() {
+    const Findings findings = findingsOf(instrumentYaml(
+        "      - {name: owns, text: \"Own a garden?\", type: single, codes: yes_no}\n"
+        "      - {name: tools, text: \"Tools?\", type: multi, codes: yes_no}\n"
+        "      - {name: TOOLS_2, text: \"Second?\", type: single, codes: yes_no}\n"
+        "      - {name: Owns, text: \"Again?\", type: single, codes: yes_no}\n"));
+    QStringList messages;
+    for (const Finding& f : findings)
+        if (f.check == u"duplicate-name"_s)
+            messages.append(f.message);
+    QCOMPARE(messages,
+             (QStringList{u"the name 'TOOLS_2' of item 'TOOLS_2' is already used by variable "
+                          u"'tools_2' of multi item 'tools' (names must be unique ignoring case)"_s,
+                          u"the name 'Owns' of item 'Owns' is already used by item 'owns' (names "
+                          u"must be unique ignoring case)"_s}));
 }
 
 void TestCheck::findingIdsAndOrder() {
