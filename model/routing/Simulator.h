@@ -7,11 +7,6 @@
 
 namespace rb {
 
-// The reference route of DESIGN.md "Routing semantics", step by step:
-//   pos := first item; while pos is not END: if the filters fail, skip it;
-//   else present it, then the first rule whose condition holds jumps, else next.
-// `answerOf(position)` gives the value a presented item records. The loop
-// guard stops after 4 x (number of items) steps.
 // One condition the route evaluated: a filter (index into the item's
 // `filters`, module's first) or a rule's `if` (index into its `rules`).
 struct Evaluation {
@@ -20,6 +15,11 @@ struct Evaluation {
     int rule = -1;
 };
 
+// The reference route of DESIGN.md "Routing semantics", step by step:
+//   pos := first item; while pos is not END: if the filters fail, skip it;
+//   else present it, then the first rule whose condition holds jumps, else next.
+// `answerOf(position)` gives the value a presented item records. The loop
+// guard stops after 4 x (number of items) steps.
 struct RouteResult {
     QList<int> path;               // presented positions, in order (repeats possible in a loop)
     bool loop = false;             // true when the guard stopped the route

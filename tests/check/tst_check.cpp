@@ -299,7 +299,15 @@ void TestCheck::cleanSamples() {
             loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/") + QLatin1String(name));
         QVERIFY(loaded.ok());
         const CompiledRouting routing(*loaded.instrument);
-        QCOMPARE(countFindings(checkInstrument(routing)).errors, 0);
+        const Findings findings = checkInstrument(routing);
+        QCOMPARE(countFindings(findings).errors, 0);
+        // insulation_cost's filter reads insulation_done, which is empty only where the
+        // plans module (ask_if tenure in (1, 2)) is skipped: inside the module both
+        // has_solar branches reach it. The item's filter is evaluated only where the
+        // module's holds (module filter first), so nothing reads an unasked item there.
+        for (const Finding& f : findings)
+            QVERIFY2(f.id() != u"reads-unasked-item:insulation_cost:ask_if"_s,
+                     qPrintable(f.message));
     }
 }
 
