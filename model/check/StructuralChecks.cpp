@@ -287,7 +287,7 @@ void Checker::checkCondition(const QString& text, const Place& place, int limit,
     for (const cond::ConditionProblem& p : problems)
         add(place, p.check, Severity::Error, p.message, p.column);
     for (const cond::NameUse& use : cond::namesRead(*parsed.expr)) {
-        const int read = m_index.positionOf(use.name);
+        const int read = m_routing.positionOf(use.name);
         if (read >= limit)
             add(place, QStringLiteral("forward-reference"), Severity::Error,
                 QStringLiteral("the condition reads '%1', which is %2: it is not asked yet when "
@@ -355,7 +355,7 @@ void Checker::checkUnknownCodes(const cond::Expr& expr, const Place& place) {
     using K = cond::Expr::Kind;
     if (expr.kind != K::Compare && expr.kind != K::In && expr.kind != K::Has)
         return;
-    const int position = m_index.positionOf(expr.name);
+    const int position = m_routing.positionOf(expr.name);
     if (position < 0)
         return;
     const Item& item = *m_index.at(position).item;

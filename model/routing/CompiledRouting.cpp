@@ -9,6 +9,10 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
     : m_instrument(&instrument), m_index(instrument) {
     m_items.reserve(m_index.size());
     m_codes.reserve(m_index.size());
+    m_byExactName.reserve(m_index.size());
+    for (const ItemIndex::Entry& entry : m_index.entries())
+        if (!m_byExactName.contains(entry.item->name))
+            m_byExactName.insert(entry.item->name, m_index.positionOf(entry.item->name));
     for (const ItemIndex::Entry& entry : m_index.entries()) {
         CompiledItem compiled;
         if (entry.module->askIf)
@@ -40,6 +44,12 @@ cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
     if (!parsed.ok() || !cond::typeCheck(*parsed.expr, m_index).isEmpty())
         return nullptr;
     return parsed.expr;
+}
+
+int CompiledRouting::positionOf(const QString& name) const {
+    if (const auto it = m_byExactName.constFind(name); it != m_byExactName.constEnd())
+        return *it;
+    return m_index.positionOf(name);
 }
 
 bool CompiledRouting::isMissingCode(int position, qint64 code) const {

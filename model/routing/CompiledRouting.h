@@ -3,6 +3,7 @@
 #include "condition/Expr.h"
 #include "instrument/Instrument.h"
 
+#include <QHash>
 #include <QList>
 
 namespace rb {
@@ -35,7 +36,7 @@ public:
     int itemCount() const { return m_index.size(); }
     const CompiledItem& item(int position) const { return m_items.at(position); }
     // Position of a name read by a condition (any case), or -1.
-    int positionOf(const QString& name) const { return m_index.positionOf(name); }
+    int positionOf(const QString& name) const;
     // True when a code is a missing code of the item at this position.
     bool isMissingCode(int position, qint64 code) const;
     // Codes (with missing codes) of the item at this position.
@@ -50,6 +51,9 @@ private:
     ItemIndex m_index;
     QList<CompiledItem> m_items;
     QList<QList<Code>> m_codes;
+    // Names as the items spell them -> ItemIndex's answer: conditions mostly
+    // spell names exactly, and this lookup needs no lower-cased copy.
+    QHash<QString, int> m_byExactName;
 };
 
 } // namespace rb
