@@ -167,6 +167,7 @@ int main(int argc, char** argv) {
             const double compile = double(t.nsecsElapsed()) / 1e6;
             analysis::RoutingAnalyzer analyzer(routing);
             const double dp = double(t.nsecsElapsed()) / 1e6;
+            const std::size_t programmeNodes = analyzer.algebra().mdd().nodeCount();
             for (int p = 0; p < routing.itemCount(); ++p)
                 analyzer.universe(p);
             const double universes = double(t.nsecsElapsed()) / 1e6;
@@ -175,9 +176,9 @@ int main(int argc, char** argv) {
             structuralFindings(routing);
             const double structural = double(t.nsecsElapsed()) / 1e6;
             std::printf("        phases: compile %.1f, programme %.1f, universes %.1f, findings "
-                        "%.1f, structural %.1f ms; %zu diagram nodes\n",
+                        "%.1f, structural %.1f ms; %zu diagram nodes (%zu after the programme)\n",
                         compile, dp - compile, universes - dp, all - universes, structural - all,
-                        analyzer.algebra().mdd().nodeCount());
+                        analyzer.algebra().mdd().nodeCount(), programmeNodes);
         }
         const double median = runs.wall.at(2), analysisMedian = analysisRuns.wall.at(2);
         const double cpu = runs.cpu.at(2);
