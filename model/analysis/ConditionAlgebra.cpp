@@ -1,5 +1,7 @@
 #include "ConditionAlgebra.h"
 
+#include <QHash>
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -82,7 +84,9 @@ std::optional<ValuePiece> intervalPiece(double low, double high, bool integer) {
 
 ConditionAlgebra::ConditionAlgebra(const CompiledRouting& routing,
                                    const QList<cond::ExprPtr>& extra)
-    : m_routing(&routing) {
+    : m_routing(&routing), m_varsOfPosition(std::size_t(routing.itemCount())),
+      m_empty(std::size_t(routing.itemCount()), Mdd::True),
+      m_presented(std::size_t(routing.itemCount()), Mdd::True) {
     for (int p = 0; p < routing.itemCount(); ++p) {
         const CompiledRouting::CompiledItem& item = routing.item(p);
         for (const cond::ExprPtr& f : item.filters)
@@ -220,14 +224,16 @@ void ConditionAlgebra::buildValueVar(int position, const ItemAtoms& atoms) {
     empty.empty = true;
     empty.signature = signature(position, atoms, cond::CellValue::notPresented());
     var.cells.append(empty);
+    // Cells by signature: an item compared with thousands of values has
+    // thousands of pieces, so finding a piece's cell must not scan them all.
+    QHash<QList<bool>, int> cellOf{{empty.signature, 0}};
     for (const ValuePiece& piece : candidatePieces(position, atoms)) {
         const QList<bool> sig = signature(position, atoms, piece.sample);
-        auto same = std::find_if(var.cells.begin(), var.cells.end(),
-                                 [&](const ValueCell& c) { return c.signature == sig; });
-        if (same != var.cells.end()) {
-            same->pieces.append(piece);
+        if (const auto same = cellOf.constFind(sig); same != cellOf.constEnd()) {
+            var.cells[*same].pieces.append(piece);
             continue;
         }
+        cellOf.insert(sig, int(var.cells.size()));
         ValueCell cell;
         cell.answered = sig.at(1);
         cell.pieces.append(piece);
@@ -310,11 +316,11 @@ void ConditionAlgebra::buildMultiVars(int position, const ItemAtoms& atoms) {
 }
 
 int ConditionAlgebra::emptyOf(int position) const {
-    return m_empty.value(position, Mdd::True);
+    return m_empty.at(position);
 }
 
 int ConditionAlgebra::presentedOf(int position) const {
-    return m_presented.value(position, Mdd::True);
+    return m_presented.at(position);
 }
 
 int ConditionAlgebra::conditionText(const QString& text) {

@@ -7,6 +7,8 @@
 #include <QHash>
 #include <QList>
 
+#include <vector>
+
 namespace rb::analysis {
 
 // One piece of an item's value set, kept so that a set of cells can be printed
@@ -71,7 +73,7 @@ public:
     int emptyOf(int position) const;
     int presentedOf(int position) const;
     bool isGateItem(int position) const { return !varsOf(position).isEmpty(); }
-    QList<int> varsOf(int position) const { return m_varsOfPosition.value(position); }
+    const QList<int>& varsOf(int position) const { return m_varsOfPosition.at(position); }
     const DecisionVar& variable(int var) const { return m_vars.at(var); }
     int varCount() const { return int(m_vars.size()); }
 
@@ -99,9 +101,10 @@ private:
     const CompiledRouting* m_routing;
     Mdd m_mdd;
     QList<DecisionVar> m_vars;
-    QHash<int, QList<int>> m_varsOfPosition;
+    // Per position (vectors, not hashes: the programme asks for every item).
+    std::vector<QList<int>> m_varsOfPosition;
     QHash<int, ItemAtoms> m_atoms;
-    QHash<int, int> m_empty, m_presented; // position -> node
+    std::vector<int> m_empty, m_presented; // position -> node (true for non-gate items)
     QHash<const cond::Expr*, int> m_atomCache;
     QList<cond::ExprPtr> m_keepAlive;
 };

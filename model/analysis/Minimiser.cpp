@@ -1,34 +1,12 @@
 #include "Minimiser.h"
 
 #include <algorithm>
-#include <bit>
 #include <functional>
 #include <map>
 #include <set>
 #include <unordered_map>
 
 namespace rb::analysis {
-
-int CellSet::count() const {
-    int n = 0;
-    for (std::uint64_t w : words)
-        n += std::popcount(w);
-    return n;
-}
-
-CellSet CellSet::full(int size) {
-    CellSet s;
-    for (int i = 0; i < size; ++i)
-        s.set(i);
-    return s;
-}
-
-bool CellSet::isSubsetOf(const CellSet& o) const {
-    for (int i = 0; i < 4; ++i)
-        if (words[i] & ~o.words[i])
-            return false;
-    return true;
-}
 
 int Sop::literalCount() const {
     int n = 0;
@@ -120,8 +98,7 @@ public:
                 CellSet s;
                 for (std::size_t d = 0; d < children.size(); ++d)
                     if ((subset & (1u << d)) || cubeImplies(q, children[d]))
-                        for (int w = 0; w < 4; ++w)
-                            s.words[w] |= masks[d].words[w];
+                        s |= masks[d];
                 q[li] = s;
                 found.insert(q);
             }

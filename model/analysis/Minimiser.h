@@ -1,24 +1,12 @@
 #pragma once
 
+#include "CellSet.h"
 #include "Mdd.h"
 
-#include <array>
 #include <cstdint>
 #include <vector>
 
 namespace rb::analysis {
-
-// A set of cells of one variable (domains of up to 256 cells).
-struct CellSet {
-    std::array<std::uint64_t, 4> words{};
-    void set(int cell) { words[cell >> 6] |= std::uint64_t(1) << (cell & 63); }
-    bool test(int cell) const { return (words[cell >> 6] >> (cell & 63)) & 1; }
-    int count() const;
-    static CellSet full(int size);
-    bool isSubsetOf(const CellSet& o) const;
-    bool operator==(const CellSet&) const = default;
-    auto operator<=>(const CellSet&) const = default;
-};
 
 // A product: one cell set per variable it constrains (variables in the
 // caller's order); a sum of products is exact in meaning.

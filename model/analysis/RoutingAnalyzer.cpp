@@ -40,6 +40,17 @@ int RoutingAnalyzer::filterNode(int position) {
     return f;
 }
 
+// The filters are joined with an `and` evaluated left to right, module's
+// first (as the simulator does): the item's own filter is evaluated only where
+// the module's holds.
+int RoutingAnalyzer::itemFilterEvaluated(int position) {
+    const CompiledRouting::CompiledItem& item = m_routing.item(position);
+    if (!item.hasModuleFilter)
+        return m_reached.at(position);
+    return m_algebra.mdd().andOp(m_reached.at(position),
+                                 m_algebra.conditionAt(*item.filters.first(), position));
+}
+
 int RoutingAnalyzer::gapEmpty(int from, int to) {
     Mdd& mdd = m_algebra.mdd();
     int acc = Mdd::True;
@@ -246,7 +257,7 @@ void RoutingAnalyzer::preferShorterForms(Sop& sop, int on, const UniversePrinter
             if (role == DecisionVar::Role::MultiHas || !l.cells.test(0) || l.cells.count() < 2)
                 continue;
             SopLiteral positive = l;
-            positive.cells.words[0] &= ~std::uint64_t(1);
+            positive.cells.reset(0);
             const QString withEmpty = printer.literal(l), without = printer.literal(positive);
             // Value lists: fewer elements wins; the status of a multi item: the shorter text.
             if (role == DecisionVar::Role::Value ? elementCount(without) > elementCount(withEmpty)
@@ -409,28 +420,68 @@ void RoutingAnalyzer::addRuleFindings(Findings& out) {
     }
 }
 
+namespace {
+
+// The witness assignment of a set (Mdd::satOne's: the lowest cell that does not
+// lead to false, from the root down), walked only as deep as it is read. The
+// exact sets depend on every earlier gate item, so the full path is as long as
+// the questionnaire; the path's last items need only its top (latest items),
+// which keeps a finding's cost independent of the instrument's length.
+class WitnessWalk {
+public:
+    WitnessWalk(const Mdd& mdd, int set, std::vector<int>& scratch)
+        : m_mdd(mdd), m_node(set), m_scratch(scratch) {}
+    ~WitnessWalk() {
+        for (int v : m_touched)
+            m_scratch[v] = 0; // the scratch assignment is all empty between uses
+    }
+    // Cell of `var` (0, empty, where the walk leaves it free).
+    int cell(int var) {
+        while (!m_mdd.isConstant(m_node) && m_mdd.var(m_node) <= var) {
+            const int v = m_mdd.var(m_node);
+            int c = 0;
+            while (m_mdd.child(m_node, c) == Mdd::False)
+                ++c;
+            m_scratch[v] = c;
+            m_touched.push_back(v);
+            m_node = m_mdd.child(m_node, c);
+        }
+        return m_scratch[var];
+    }
+    bool holds(int f) {
+        while (!m_mdd.isConstant(f))
+            f = m_mdd.child(f, cell(m_mdd.var(f)));
+        return f == Mdd::True;
+    }
+
+private:
+    const Mdd& m_mdd;
+    int m_node;
+    std::vector<int>& m_scratch;
+    std::vector<int> m_touched;
+};
+
+} // namespace
+
 std::optional<QString> RoutingAnalyzer::witnessPath(int set, int untilPosition) {
-    const std::optional<std::vector<int>> cells = m_algebra.mdd().satOne(set);
-    if (!cells)
+    if (set == Mdd::False)
         return std::nullopt;
     // The last items of the witness's path before the condition's item. On a
     // consistent assignment the loose universe of an item equals its exact one
     // (and has a small support), so each test is cheap; the programme already
     // proved that this agrees with the simulator. Variables the witness leaves
     // free belong to later items: empty at that point (cell 0).
-    std::vector<int> at = *cells;
-    for (int& c : at)
-        c = std::max(c, 0);
-    const Mdd& mdd = m_algebra.mdd();
+    m_scratch.resize(std::size_t(m_algebra.varCount()), 0);
+    WitnessWalk witness(m_algebra.mdd(), set, m_scratch);
     constexpr int Shown = 6; // a long path is cut to its last items
     QStringList names;
     int p = untilPosition - 1;
     for (; p >= 0 && names.size() < Shown; --p)
-        if (mdd.evaluate(m_loose[p], at))
+        if (witness.holds(m_loose[p]))
             names.prepend(m_routing.index().at(p).item->name);
     bool more = false;
     for (; p >= 0 && !more; --p)
-        more = mdd.evaluate(m_loose[p], at);
+        more = witness.holds(m_loose[p]);
     if (more)
         names.prepend(u"..."_s);
     return names.isEmpty() ? u"(no item presented before)"_s : names.join(u", "_s);
@@ -438,7 +489,6 @@ std::optional<QString> RoutingAnalyzer::witnessPath(int set, int untilPosition) 
 
 void RoutingAnalyzer::addUnaskedReads(Findings& out) {
     Mdd& mdd = m_algebra.mdd();
-    const Instrument& instrument = m_routing.instrument();
     struct Site {
         cond::ExprPtr expr;
         int position;     // where it is evaluated
@@ -460,17 +510,20 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
                 moduleFirst[e.moduleIndex] = i;
         }
     }
+    // The conditions as CompiledRouting parsed them (usable ones only): the
+    // module's filter first in each of its items' filters, then the item's own.
     for (auto it = moduleFirst.constBegin(); it != moduleFirst.constEnd(); ++it) {
-        const Module& module = instrument.modules.at(it.key());
-        if (cond::ExprPtr expr = m_routing.compileCondition(*module.askIf))
-            sites.append(
-                {expr, it.value(), moduleSets.value(it.key()), u"ask_if"_s, true, it.value()});
+        const CompiledRouting::CompiledItem& first = m_routing.item(it.value());
+        if (first.hasModuleFilter)
+            sites.append({first.filters.first(), it.value(), moduleSets.value(it.key()),
+                          u"ask_if"_s, true, it.value()});
     }
     for (int i = 0; i < m_routing.itemCount(); ++i) {
+        const CompiledRouting::CompiledItem& compiled = m_routing.item(i);
         const Item& item = *m_routing.index().at(i).item;
-        if (item.askIf)
-            if (cond::ExprPtr expr = m_routing.compileCondition(*item.askIf))
-                sites.append({expr, i, m_reached[i], u"ask_if"_s, false, i});
+        if (compiled.filters.size() > (compiled.hasModuleFilter ? 1 : 0))
+            sites.append(
+                {compiled.filters.last(), i, itemFilterEvaluated(i), u"ask_if"_s, false, i});
         for (int k = 0; k < item.routing.size(); ++k) {
             const CompiledRouting::CompiledRule& rule = m_routing.item(i).rules.at(k);
             if (rule.usable && rule.condition)
@@ -508,6 +561,7 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
             f.item.clear();
         }
         f.column = column;
+        m_readWitness.insert(f.id(), witness);
         const QString path = witnessPath(witness, site.position).value_or(QString());
         f.message = u"the condition reads "_s + empties.first() +
                     u", which is empty (not presented) on some paths that reach it, e.g. after "_s +
@@ -517,6 +571,13 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
                 u"; also reads "_s + empties.mid(1).join(u", "_s) + u", which can be empty there"_s;
         out.append(f);
     }
+}
+
+std::optional<std::vector<int>> RoutingAnalyzer::unaskedReadWitness(const QString& id) const {
+    const auto it = m_readWitness.constFind(id);
+    if (it == m_readWitness.constEnd())
+        return std::nullopt;
+    return m_algebra.mdd().satOne(*it);
 }
 
 Findings RoutingAnalyzer::findings() {

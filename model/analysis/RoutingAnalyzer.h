@@ -30,6 +30,11 @@ public:
     Findings findings();
     RoutingAnalysis analysis();
 
+    // After findings(): for a reads-unasked-item finding (by id), an assignment
+    // (cell per variable, -1 where free) on which the condition is evaluated
+    // and one of the items it reads is empty.
+    std::optional<std::vector<int>> unaskedReadWitness(const QString& findingId) const;
+
     // Positions of the loops (strongly connected components with a cycle).
     const std::vector<std::vector<int>>& loops() const { return m_loops; }
 
@@ -41,8 +46,9 @@ private:
     };
     void run();
     int filterNode(int position);
-    int gapEmpty(int from, int to); // gate items strictly between are empty
-    int consistency(int position);  // C_j: presented iff its loose universe holds
+    int itemFilterEvaluated(int position); // where the item's own ask_if is evaluated
+    int gapEmpty(int from, int to);        // gate items strictly between are empty
+    int consistency(int position);         // C_j: presented iff its loose universe holds
     int careSet(const QList<int>& keep);
     QList<int> positionsOf(const std::vector<int>& vars) const;
     void preferShorterForms(Sop& sop, int on, const UniversePrinter& printer);
@@ -65,6 +71,8 @@ private:
     std::vector<std::vector<int>> m_loops;
     std::vector<bool> m_inLoop;
     QHash<int, int> m_consistency;
+    QHash<QString, int> m_readWitness; // reads-unasked-item id -> witness set
+    std::vector<int> m_scratch;        // a cell per variable, all 0 between uses
 };
 
 } // namespace rb::analysis

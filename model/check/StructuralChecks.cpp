@@ -60,7 +60,15 @@ private:
     int modulePosition(const Module& module) const { return m_index.modulePosition(module.name); }
 
     void checkNames();
-    void claimName(const QString& name, const Place& place, const QString& what);
+    // Who holds a name; worded only when a duplicate needs the message (every
+    // item claims one, so building the words up front cost a string apiece).
+    struct Claimant {
+        enum class Kind { Module, Item, Variable } kind;
+        QString name;
+        QString item; // Variable: the multi item it belongs to
+        QString words() const;
+    };
+    void claimName(const QString& name, const Place& place, const Claimant& who);
     void checkCodeLists();
     void checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
                     QSet<qint64>& seen);
@@ -77,25 +85,38 @@ private:
     const CompiledRouting& m_routing;
     const ItemIndex& m_index;
     Findings m_findings;
-    QHash<QString, QString> m_names; // lower-case name -> what claimed it
+    QHash<QString, Claimant> m_names; // lower-case name -> who claimed it
 };
 
-void Checker::claimName(const QString& name, const Place& place, const QString& what) {
+QString Checker::Claimant::words() const {
+    switch (kind) {
+    case Kind::Module:
+        return QStringLiteral("module '%1'").arg(name);
+    case Kind::Item:
+        return QStringLiteral("item '%1'").arg(name);
+    case Kind::Variable:
+        return QStringLiteral("variable '%1' of multi item '%2'").arg(name, item);
+    }
+    return {};
+}
+
+void Checker::claimName(const QString& name, const Place& place, const Claimant& who) {
     const QString key = name.toLower();
     const auto it = m_names.constFind(key);
     if (it != m_names.constEnd()) {
         add(place, QStringLiteral("duplicate-name"), Severity::Error,
             QStringLiteral("the name '%1' of %2 is already used by %3 (names must be unique "
                            "ignoring case)")
-                .arg(name, what, *it));
+                .arg(name, who.words(), it->words()));
         return;
     }
-    m_names.insert(key, what);
+    m_names.insert(key, who);
 }
 
 void Checker::checkNames() {
     const Instrument& instrument = m_routing.instrument();
     int position = 0; // flat position of the next item
+    m_names.reserve(m_index.size() + instrument.modules.size());
     for (const Module& module : instrument.modules) {
         const Place place{nullptr, &module, modulePosition(module), QStringLiteral("name"), {}};
         if (!isValidItemName(module.name))
@@ -103,7 +124,7 @@ void Checker::checkNames() {
                 QStringLiteral("module name '%1' is not a valid name (a letter, then letters, "
                                "digits or _, at most 32, not a keyword nor END)")
                     .arg(module.name));
-        claimName(module.name, place, QStringLiteral("module '%1'").arg(module.name));
+        claimName(module.name, place, {Claimant::Kind::Module, module.name, {}});
         for (const Item& item : module.items) {
             const Place ip{&item, &module, position++, QStringLiteral("name"), {}};
             if (!isValidItemName(item.name))
@@ -111,12 +132,10 @@ void Checker::checkNames() {
                     QStringLiteral("item name '%1' is not a valid name (a letter, then letters, "
                                    "digits or _, at most 32, not a keyword nor END)")
                         .arg(item.name));
-            claimName(item.name, ip, QStringLiteral("item '%1'").arg(item.name));
+            claimName(item.name, ip, {Claimant::Kind::Item, item.name, {}});
             if (item.type == ItemType::Multi)
                 for (const QString& variable : multiVariableNames(instrument, item))
-                    claimName(variable, ip,
-                              QStringLiteral("variable '%1' of multi item '%2'")
-                                  .arg(variable, item.name));
+                    claimName(variable, ip, {Claimant::Kind::Variable, variable, item.name});
         }
     }
 }
@@ -268,7 +287,7 @@ void Checker::checkCondition(const QString& text, const Place& place, int limit,
     for (const cond::ConditionProblem& p : problems)
         add(place, p.check, Severity::Error, p.message, p.column);
     for (const cond::NameUse& use : cond::namesRead(*parsed.expr)) {
-        const int read = m_index.positionOf(use.name);
+        const int read = m_routing.positionOf(use.name);
         if (read >= limit)
             add(place, QStringLiteral("forward-reference"), Severity::Error,
                 QStringLiteral("the condition reads '%1', which is %2: it is not asked yet when "
@@ -336,7 +355,7 @@ void Checker::checkUnknownCodes(const cond::Expr& expr, const Place& place) {
     using K = cond::Expr::Kind;
     if (expr.kind != K::Compare && expr.kind != K::In && expr.kind != K::Has)
         return;
-    const int position = m_index.positionOf(expr.name);
+    const int position = m_routing.positionOf(expr.name);
     if (position < 0)
         return;
     const Item& item = *m_index.at(position).item;

@@ -74,6 +74,13 @@ QList<Code> Instrument::codesOf(const Item& item) const {
 }
 
 ItemIndex::ItemIndex(const Instrument& instrument) {
+    qsizetype items = 0;
+    for (const Module& module : instrument.modules)
+        items += module.items.size();
+    // One pass, sized up front: every check, export and analysis builds an index.
+    m_entries.reserve(items);
+    m_byName.reserve(items);
+    m_moduleFirst.reserve(instrument.modules.size());
     int position = 0;
     for (int m = 0; m < instrument.modules.size(); ++m) {
         const Module& module = instrument.modules.at(m);
@@ -81,16 +88,14 @@ ItemIndex::ItemIndex(const Instrument& instrument) {
         m_moduleFirst.insert(key(module.name), position);
         for (const Item& item : module.items) {
             m_entries.append({&item, &module, m, position});
-            m_byName.insert(key(item.name), position); // first wins below
+            // Duplicate names: keep the first occurrence (a duplicate-name finding reports the
+            // rest).
+            const QString k = key(item.name);
+            if (!m_byName.contains(k))
+                m_byName.insert(k, position);
             ++position;
         }
     }
-    // Duplicate names: keep the first occurrence (a duplicate-name finding reports the rest).
-    QHash<QString, int> first;
-    for (const Entry& e : m_entries)
-        if (!first.contains(key(e.item->name)))
-            first.insert(key(e.item->name), e.position);
-    m_byName = first;
 }
 
 int ItemIndex::positionOf(const QString& name) const {

@@ -9,12 +9,20 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
     : m_instrument(&instrument), m_index(instrument) {
     m_items.reserve(m_index.size());
     m_codes.reserve(m_index.size());
+    m_byExactName.reserve(m_index.size());
+    for (const ItemIndex::Entry& entry : m_index.entries())
+        if (!m_byExactName.contains(entry.item->name))
+            m_byExactName.insert(entry.item->name, m_index.positionOf(entry.item->name));
     for (const ItemIndex::Entry& entry : m_index.entries()) {
         CompiledItem compiled;
-        for (const std::optional<QString>& filter : {entry.module->askIf, entry.item->askIf})
-            if (filter)
-                if (cond::ExprPtr expr = compileCondition(*filter))
-                    compiled.filters.append(expr);
+        if (entry.module->askIf)
+            if (cond::ExprPtr expr = compileCondition(*entry.module->askIf)) {
+                compiled.filters.append(expr);
+                compiled.hasModuleFilter = true;
+            }
+        if (entry.item->askIf)
+            if (cond::ExprPtr expr = compileCondition(*entry.item->askIf))
+                compiled.filters.append(expr);
         for (const Rule& rule : entry.item->routing) {
             CompiledRule c;
             c.target = m_index.resolveTarget(rule.target);
@@ -36,6 +44,12 @@ cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
     if (!parsed.ok() || !cond::typeCheck(*parsed.expr, m_index).isEmpty())
         return nullptr;
     return parsed.expr;
+}
+
+int CompiledRouting::positionOf(const QString& name) const {
+    if (const auto it = m_byExactName.constFind(name); it != m_byExactName.constEnd())
+        return *it;
+    return m_index.positionOf(name);
 }
 
 bool CompiledRouting::isMissingCode(int position, qint64 code) const {

@@ -3,6 +3,7 @@
 #include "condition/Expr.h"
 #include "instrument/Instrument.h"
 
+#include <QHash>
 #include <QList>
 
 namespace rb {
@@ -20,9 +21,11 @@ public:
         bool usable = true;      // false: broken condition or unknown target, never fires
     };
     struct CompiledItem {
-        // Filters in effect: the item's own and its module's (joined with and);
-        // broken ones are left out.
+        // Filters in effect, module's first, then the item's own, joined with an
+        // `and` evaluated left to right: the item's filter is only evaluated (and
+        // only reads its items) where the module's holds. Broken ones are left out.
         QList<cond::ExprPtr> filters;
+        bool hasModuleFilter = false; // filters.first() is the module's
         QList<CompiledRule> rules;
     };
 
@@ -33,7 +36,7 @@ public:
     int itemCount() const { return m_index.size(); }
     const CompiledItem& item(int position) const { return m_items.at(position); }
     // Position of a name read by a condition (any case), or -1.
-    int positionOf(const QString& name) const { return m_index.positionOf(name); }
+    int positionOf(const QString& name) const;
     // True when a code is a missing code of the item at this position.
     bool isMissingCode(int position, qint64 code) const;
     // Codes (with missing codes) of the item at this position.
@@ -48,6 +51,9 @@ private:
     ItemIndex m_index;
     QList<CompiledItem> m_items;
     QList<QList<Code>> m_codes;
+    // Names as the items spell them -> ItemIndex's answer: conditions mostly
+    // spell names exactly, and this lookup needs no lower-cased copy.
+    QHash<QString, int> m_byExactName;
 };
 
 } // namespace rb

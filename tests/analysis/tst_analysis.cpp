@@ -10,6 +10,7 @@
 #include "analysis/RoutingAnalyzer.h"
 #include "analysis/Scc.h"
 #include "routing/CompiledRouting.h"
+#include "routing/Simulator.h"
 
 #include <QJsonArray>
 #include <QJsonDocument>
@@ -514,6 +515,90 @@ private slots:
         QCOMPARE(f.module, u"later"_s);
         QCOMPARE(f.id(), u"reads-unasked-item:later:ask_if"_s);
         QCOMPARE(a->universe(u"d"_s).askedIf, u"b = 1"_s);
+    }
+
+    void itemFilterIsReadOnlyWhereTheModuleFilterHolds() {
+        // Module "later" is asked if a = 1; its item c adds b = 1, and b itself is
+        // asked only when a = 1. The filters join as "module's and then the
+        // item's", evaluated left to right, so c's own filter is evaluated only
+        // for a = 1, where b is always presented: nothing reads an unasked item.
+        // (Before this rule the analysis read c's filter for a <> 1 too and warned.)
+        const auto a = analyse(instrument(
+            {module(u"first"_s, {yesNoItem(u"a"_s), withAskIf(yesNoItem(u"b"_s), u"a = 1"_s)}),
+             module(u"later"_s, {withAskIf(yesNoItem(u"c"_s), u"b = 1"_s), yesNoItem(u"d"_s)},
+                    u"a = 1"_s)}));
+        QCOMPARE(a->findingIds(), QStringList());
+        // c: a = 1 and b = 1, and b = 1 already implies a = 1 (b is empty otherwise).
+        QCOMPARE(a->universe(u"c"_s).askedIf, u"b = 1"_s);
+        QCOMPARE(a->universe(u"d"_s).askedIf, u"a = 1"_s);
+
+        // The simulator evaluates the same conditions: for a = 2, b's filter, then
+        // the module filter at c (fails, so c's own is not evaluated) and at d.
+        const auto answers = [](qint64 va, qint64 vb) {
+            return [va, vb](int p) { return cond::CellValue::ofNumber(p == 0 ? va : vb); };
+        };
+        const RouteResult no = simulateRoute(*a->routing, answers(2, 1), true);
+        QCOMPARE(no.path, (QList<int>{0}));
+        QList<std::pair<int, int>> filters; // (position, filter index)
+        for (const Evaluation& e : no.evaluated)
+            filters.append({e.position, e.filter});
+        QCOMPARE(filters, (QList<std::pair<int, int>>{{1, 0}, {2, 0}, {3, 0}}));
+        // For a = 1, b = 1: b's filter, c's module filter then its own, d's module filter.
+        const RouteResult yes = simulateRoute(*a->routing, answers(1, 1), true);
+        QCOMPARE(yes.path, (QList<int>{0, 1, 2, 3}));
+        filters.clear();
+        for (const Evaluation& e : yes.evaluated)
+            filters.append({e.position, e.filter});
+        QCOMPARE(filters, (QList<std::pair<int, int>>{{1, 0}, {2, 0}, {2, 1}, {3, 0}}));
+    }
+
+    void itemFilterStillWarnsWhereTheModuleLetsEmptyThrough() {
+        // Same shape, but the module is asked if a in (1, 2): for a = 2 the module
+        // filter holds, b was filtered out (empty), and c's b = 1 reads it.
+        const auto a = analyse(instrument(
+            {module(u"first"_s, {yesNoItem(u"a"_s), withAskIf(yesNoItem(u"b"_s), u"a = 1"_s)}),
+             module(u"later"_s, {withAskIf(yesNoItem(u"c"_s), u"b = 1"_s), yesNoItem(u"d"_s)},
+                    u"a in (1, 2)"_s)}));
+        QCOMPARE(a->findingIds(), QStringList{u"reads-unasked-item:c:ask_if"_s});
+        QVERIFY2(a->result.findings.first().message.contains(u"after a"_s),
+                 qPrintable(a->result.findings.first().message));
+        QCOMPARE(a->universe(u"c"_s).askedIf, u"b = 1"_s);
+        // (A run of two codes is listed as two values, as elsewhere: `a in (1, 2)`.)
+        QCOMPARE(a->universe(u"d"_s).askedIf, u"a in (1, 2)"_s);
+    }
+
+    void thousandComparedValuesKeepEveryCell() {
+        // q (0..100000) is compared with 1,000 values 10, 20, ..., 10000. Each
+        // value is told apart by its own `q = v` atom of s, and every other value
+        // (0, the gaps, 100000) satisfies no atom: 1,000 cells, one "other" cell
+        // and the empty cell = 1,002 (a fixed 256-cell set overflowed here).
+        // r lists them with `in`, s spells the
+        // same set as 1,000 alternatives and t as a double negation: equivalent
+        // conditions, so all three print the same. The positive list (1,000
+        // values) beats the complement: 0..9, 11..19, ..., 9991..9999 and
+        // 10001..100000 are 1,001 elements.
+        QStringList values, alternatives;
+        for (int v = 10; v <= 10000; v += 10) {
+            values.append(QString::number(v));
+            alternatives.append(u"q = "_s + QString::number(v));
+        }
+        const QString list = values.join(u", "_s);
+        const QString expected = u"q in ("_s + list + u')';
+        const auto a = analyse(instrument({module(
+            u"m"_s, {integerItem(u"q"_s, 0, 100000), withAskIf(yesNoItem(u"r"_s), expected),
+                     withAskIf(yesNoItem(u"s"_s), alternatives.join(u" or "_s)),
+                     withAskIf(yesNoItem(u"t"_s), u"not (q not in ("_s + list + u"))"_s)})}));
+        for (const QString& name : {u"r"_s, u"s"_s, u"t"_s}) {
+            QCOMPARE(a->universe(name).asked, ItemUniverse::Asked::Conditional);
+            QCOMPARE(a->universe(name).askedIf, expected);
+            QCOMPARE(a->universe(name).gateItems, QStringList{u"q"_s});
+        }
+        QCOMPARE(a->findingIds(), QStringList());
+        // The algebra: more cells than the old fixed limit, and the three are one node.
+        ConditionAlgebra algebra(*a->routing);
+        QCOMPARE(algebra.variable(algebra.varsOf(0).first()).cells.size(), 1002);
+        QCOMPARE(algebra.conditionText(expected),
+                 algebra.conditionText(u"not (q not in ("_s + list + u"))"_s));
     }
 
     void brokenConditionsAreAbsent() {
