@@ -134,7 +134,13 @@ EditorWindow::EditorWindow(QWidget* parent)
     setDarkPalette(QSettings().value(QStringLiteral("darkPalette"), false).toBool());
 }
 
-EditorWindow::~EditorWindow() = default;
+EditorWindow::~EditorWindow() {
+    // The children are deleted by ~QWidget, after this part of the window is
+    // gone; a signal one of them sends on its way out (selection, focus,
+    // undo stack) must not reach a half-destroyed EditorWindow (UBSan saw one).
+    for (QObject* child : findChildren<QObject*>())
+        child->disconnect(this);
+}
 
 bool EditorWindow::isReadOnly() const {
     return m_document->isReadOnly();

@@ -10,12 +10,6 @@ namespace rb::analysis {
 
 namespace {
 
-bool isAtom(cond::Expr::Kind kind) {
-    using K = cond::Expr::Kind;
-    return kind == K::Compare || kind == K::In || kind == K::Has || kind == K::Asked ||
-           kind == K::Answered;
-}
-
 void numbersOf(const cond::Expr& atom, QList<double>& out) {
     if (atom.kind == cond::Expr::Kind::Compare && atom.value.isNumber())
         out.append(atom.value.number);
@@ -102,7 +96,7 @@ ConditionAlgebra::ConditionAlgebra(const CompiledRouting& routing,
 }
 
 void ConditionAlgebra::collect(const cond::Expr& expr) {
-    if (!isAtom(expr.kind)) {
+    if (!expr.isAtom()) {
         for (const cond::ExprPtr& c : expr.children)
             collect(*c);
         return;

@@ -12,15 +12,10 @@ namespace {
 using cond::Expr;
 using cond::ExprPtr;
 
-bool isAtom(const Expr& e) {
-    return e.kind == Expr::Kind::Compare || e.kind == Expr::Kind::In || e.kind == Expr::Kind::Has ||
-           e.kind == Expr::Kind::Asked || e.kind == Expr::Kind::Answered;
-}
-
 // Rebuilds the tree with `edit` applied to every atom; `edit` returns whether
 // it changed the copy it was given. Untouched subtrees are shared, not copied.
 ExprPtr mapAtoms(const ExprPtr& node, const std::function<bool(Expr&)>& edit, bool& changed) {
-    if (isAtom(*node)) {
+    if (node->isAtom()) {
         auto copy = std::make_shared<Expr>(*node);
         if (!edit(*copy))
             return node;
