@@ -140,6 +140,7 @@ EditorWindow::~EditorWindow() {
     // undo stack) must not reach a half-destroyed EditorWindow (UBSan saw one).
     for (QObject* child : findChildren<QObject*>())
         child->disconnect(this);
+    m_form->setUniverseProvider({});
 }
 
 bool EditorWindow::isReadOnly() const {
