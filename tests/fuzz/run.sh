@@ -4,7 +4,7 @@
 #   cmake --preset fuzz && cmake --build --preset fuzz
 #   tests/fuzz/run.sh 600            # 10 minutes per target, one after another
 # Environment: FUZZ_BUILD_DIR (default: build-fuzz in the repository),
-#   FUZZ_TARGETS (default: "condition yaml csv project"), FUZZ_PARALLEL=1 runs
+#   FUZZ_TARGETS (default: "condition yaml csv csv_blocks project"), FUZZ_PARALLEL=1 runs
 #   the targets at the same time.
 # Seeds come from tests/fuzz/corpus/TARGET (read only); new inputs go to
 # $FUZZ_BUILD_DIR/fuzz-corpus/TARGET, crashes to $FUZZ_BUILD_DIR/fuzz-artifacts/.
@@ -15,7 +15,7 @@ seconds=${1:?usage: run.sh SECONDS}
 here=$(cd "$(dirname "$0")" && pwd)
 root=$(cd "$here/../.." && pwd)
 build=${FUZZ_BUILD_DIR:-$root/build-fuzz}
-targets=${FUZZ_TARGETS:-condition yaml csv project}
+targets=${FUZZ_TARGETS:-condition yaml csv csv_blocks project}
 status=0
 
 run_one() {
