@@ -188,6 +188,15 @@ void RecordProgram::buildHot() {
         h.gatesFrom = int(m_gates.size());
         m_gates.insert(m_gates.end(), t.gates.begin(), t.gates.end());
         h.gatesTo = int(m_gates.size());
+        if (t.filters.size() == 1) {
+            const Node& n = m_nodes[size_t(t.filters.front())];
+            if (n.kind == Kind::Compare && n.isNumber && n.position >= 0) {
+                h.quickNode = t.filters.front();
+                h.quickPosition = n.position;
+                h.quickOp = n.op;
+                h.quickNumber = n.number;
+            }
+        }
     }
 }
 
@@ -196,15 +205,12 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
     if (t.type != ItemType::Single && t.type != ItemType::Integer && t.type != ItemType::Decimal)
         return;
     std::vector<Small> table(kSmallNumbers);
-    Scratch s;
     for (int v = 0; v < kSmallNumbers; ++v) {
         const QByteArray text = QByteArray::number(v);
         Cell cell;
-        s.codes.clear();
-        s.codeSlots.clear();
-        decodeNumber(t, text, cell, s);
+        decodeNumber(t, text, cell);
         table[size_t(v)] = {cell.presentedClass, cell.skipIsLegitimate,
-                            cell.codesCount ? s.codeSlots[0] - t.frequencyBase : -1};
+                            cell.slot >= 0 ? cell.slot - t.frequencyBase : -1};
     }
     for (const auto& shared : m_smallTables)
         if (*shared == table) {
@@ -216,7 +222,7 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
 }
 
 // Cells of 1 to 3 digits by table; false for anything else.
-bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out, Scratch& s) const {
+bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out) const {
     const qsizetype n = v.size();
     if (!t.small || n > 3)
         return false;
@@ -233,12 +239,7 @@ bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out, Scrat
     out.number = value;
     out.presentedClass = e.presentedClass;
     out.skipIsLegitimate = e.skipIsLegitimate;
-    if (e.slot >= 0) {
-        out.codesFrom = int(s.codes.size());
-        out.codesCount = 1;
-        s.codes.push_back(value);
-        s.codeSlots.push_back(t.frequencyBase + e.slot);
-    }
+    out.slot = e.slot >= 0 ? t.frequencyBase + e.slot : -1;
     return true;
 }
 
@@ -305,8 +306,7 @@ bool RecordProgram::isSkipValue(const ItemProgram& t, QByteArrayView cell) const
     return e && e->kind == MissingKind::NotApplicable;
 }
 
-void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out,
-                                 Scratch& s) const {
+void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out) const {
     double v = 0;
     if (!parseCellNumber(cell, v)) { // compared as it stands: text never equals a number
         out.state = State::Text;
@@ -324,10 +324,7 @@ void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell
     const bool whole = std::floor(v) == v && std::abs(v) < 9e15;
     if (e && whole) {
         out.presentedClass = classOfMissing(e->kind);
-        out.codesFrom = int(s.codes.size());
-        out.codesCount = 1;
-        s.codes.push_back(code);
-        s.codeSlots.push_back(t.frequencyBase + e->slot);
+        out.slot = t.frequencyBase + e->slot;
         return;
     }
     bool ok = t.type != ItemType::Single && (t.type == ItemType::Decimal || whole);
@@ -398,8 +395,8 @@ void RecordProgram::decode(size_t p, const std::vector<QByteArrayView>& fields, 
         cell.skipIsLegitimate = isSkipValue(m_items[p], v);
         return;
     }
-    if (!decodeSmall(h, v, cell, s))
-        decodeNumber(m_items[p], v, cell, s);
+    if (!decodeSmall(h, v, cell))
+        decodeNumber(m_items[p], v, cell);
 }
 
 bool RecordProgram::compare(const Cell* cell, cond::CompareOp op, const Literal& v) const {
@@ -561,9 +558,7 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
             s.anyInvalid |= c == CellClass::Invalid;
             if (counters) {
                 ++counters[int(c)];
-                ++counters[Presented];
-                for (int k = 0; k < cell.codesCount; ++k)
-                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+                countCodes(cell, s, tally->frequencies);
             }
             continue;
         }
@@ -647,10 +642,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     int next = 0, runStart = -1, runLength = 0;
     for (int p = 0; p < count; ++p) {
         const Hot& t = m_hot[size_t(p)];
-        bool reached = p >= next;
-        if (reached)
-            for (int f = t.filtersFrom; f < t.filtersTo && reached; ++f)
-                reached = test(m_filters[size_t(f)], s);
+        const bool reached = p >= next && filtersHold(t, s);
         qint64* counters = tally && t.resultIndex >= 0
                                ? tally->counters + size_t(t.resultIndex) * kCounters
                                : nullptr;
@@ -684,9 +676,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             }
             if (counters) {
                 ++counters[int(c)];
-                ++counters[Presented];
-                for (int k = 0; k < cell.codesCount; ++k)
-                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+                countCodes(cell, s, tally->frequencies);
             }
             continue;
         }
@@ -746,9 +736,12 @@ RecordClassification RecordProgram::toClassification(const Scratch& s) const {
     r.implied.assign(s.implied.begin(), s.implied.end());
     r.counted.resize(m_items.size());
     for (size_t p = 0; p < m_items.size(); ++p)
-        if (s.presented[p] && m_items[p].resultIndex >= 0)
+        if (s.presented[p] && m_items[p].resultIndex >= 0) {
+            if (s.cells[p].slot >= 0)
+                r.counted[p].append(qint64(s.cells[p].number));
             for (int k = 0; k < s.cells[p].codesCount; ++k)
                 r.counted[p].append(s.codes[size_t(s.cells[p].codesFrom + k)]);
+        }
     r.breakOffStart = s.breakOffStart;
     r.anyValue = s.anyValue;
     return r;
