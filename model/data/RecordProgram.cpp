@@ -167,7 +167,10 @@ RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping
             m_impliedItems.push_back(p);
 }
 
+static_assert(sizeof(void*) != 8 || sizeof(RecordProgram::Cell) == 40);
+
 void RecordProgram::buildHot() {
+    static_assert(sizeof(void*) != 8 || sizeof(Hot) == 64);
     m_hot.resize(m_items.size());
     for (size_t p = 0; p < m_items.size(); ++p) {
         const ItemProgram& t = m_items[p];
@@ -176,7 +179,6 @@ void RecordProgram::buildHot() {
         h.hasImplied = t.hasImplied;
         h.resultIndex = t.resultIndex;
         h.column = t.column;
-        h.impliedIf = t.impliedIf;
         h.small = t.small;
         h.frequencyBase = t.frequencyBase;
         h.filtersFrom = int(m_filters.size());
@@ -224,14 +226,16 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
 // Cells of 1 to 3 digits by table; false for anything else.
 bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out) const {
     const qsizetype n = v.size();
-    if (!t.small || n > 3)
+    if (!t.small || n == 0 || n > 3)
         return false;
-    int value = 0;
-    for (char c : v) {
-        if (c < '0' || c > '9')
-            return false;
-        value = value * 10 + (c - '0');
-    }
+    // Without a branch on the length (1, 2 or 3 digits alternate in real data):
+    // the digits past the length read the first one again and are not used.
+    const unsigned d0 = unsigned(static_cast<unsigned char>(v[0])) - '0';
+    const unsigned d1 = unsigned(static_cast<unsigned char>(v[n > 1 ? 1 : 0])) - '0';
+    const unsigned d2 = unsigned(static_cast<unsigned char>(v[n > 2 ? 2 : 0])) - '0';
+    if ((d0 > 9) | (d1 > 9) | (d2 > 9))
+        return false;
+    const int value = int(n == 1 ? d0 : (n == 2 ? d0 * 10 + d1 : d0 * 100 + d1 * 10 + d2));
     if (m_skipCodeIsDigits && v == QByteArrayView(m_skipCode))
         return false;
     const Small& e = t.small[value];
@@ -578,7 +582,8 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
                 break;
             }
         }
-        if (t.hasImplied && (t.impliedIf < 0 || evaluate(t.impliedIf, s)))
+        if (t.hasImplied &&
+            (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s)))
             s.implied[size_t(p)] = 1;
         if (counters) {
             ++counters[int(c)];
@@ -715,7 +720,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     for (int p : m_impliedItems) { // over the route's final values
         const Hot& t = m_hot[size_t(p)];
         if (s.classes[size_t(p)] == CellClass::LegitimateSkip &&
-            (t.impliedIf < 0 || evaluate(t.impliedIf, s))) {
+            (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s))) {
             s.implied[size_t(p)] = 1;
             if (tally)
                 ++tally->counters[size_t(t.resultIndex) * kCounters + Implied];
