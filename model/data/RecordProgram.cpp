@@ -639,24 +639,39 @@ void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch&
 // skipped cell is not blank; implied values wait for the route's final values.
 void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
                                     const Tally* tally) const {
+    // The scratch arrays through local pointers and the flags in locals: the
+    // byte arrays' stores may alias anything, so through `s` every store would
+    // make the compiler load every array's address again.
     const int count = itemCount();
-    std::fill(s.live.begin(), s.live.end(), 0);
-    s.path.clear();
-    s.loop = false;
-    s.anyValue = s.anyViolation = s.anyInvalid = false;
+    uint8_t* const live = s.live.data();
+    uint8_t* const presented = s.presented.data();
+    uint8_t* const unknownSkip = s.unknownSkip.data();
+    uint8_t* const implied = s.implied.data();
+    CellClass* const classes = s.classes.data();
+    Cell* const cells = s.cells.data();
+    const Hot* const hot = m_hot.data();
+    const QByteArrayView* const field = fields.data();
+    qint64* const allCounters = tally ? tally->counters : nullptr;
+    qint64* const frequencies = tally ? tally->frequencies : nullptr;
+    if (s.path.size() < size_t(count))
+        s.path.resize(size_t(count)); // one pass visits each position at most once
+    int* const path = s.path.data();
+    int pathLength = 0;
+    std::fill(live, live + count, 0);
+    bool anyValue = false, anyViolation = false, anyInvalid = false;
     int next = 0, runStart = -1, runLength = 0;
     for (int p = 0; p < count; ++p) {
-        const Hot& t = m_hot[size_t(p)];
-        const bool reached = p >= next && filtersHold(t, s);
-        qint64* counters = tally && t.resultIndex >= 0
-                               ? tally->counters + size_t(t.resultIndex) * kCounters
-                               : nullptr;
-        if (reached) { // presented
-            Cell& cell = s.cells[size_t(p)];
+        const Hot& t = hot[p];
+        const int resultIndex = t.resultIndex;
+        qint64* const counters = allCounters && resultIndex >= 0
+                                     ? allCounters + size_t(resultIndex) * kCounters
+                                     : nullptr;
+        if (p >= next && filtersHold(t, live, cells, s)) { // presented
+            Cell& cell = cells[p];
             decode(size_t(p), fields, cell, s);
-            s.live[size_t(p)] = 1;
-            s.presented[size_t(p)] = 1;
-            s.path.push_back(p);
+            live[p] = 1;
+            presented[p] = 1;
+            path[pathLength++] = p;
             next = p + 1;
             for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
                 const Rule& rule = m_rules[size_t(r)];
@@ -665,14 +680,14 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
                     break;
                 }
             }
-            if (t.resultIndex < 0)
+            if (resultIndex < 0)
                 continue;
             const CellClass c = cell.presentedClass;
-            s.classes[size_t(p)] = c;
-            s.unknownSkip[size_t(p)] = 0;
-            s.implied[size_t(p)] = 0;
-            s.anyValue |= c != CellClass::Blank;
-            s.anyInvalid |= c == CellClass::Invalid;
+            classes[p] = c;
+            unknownSkip[p] = 0;
+            implied[p] = 0;
+            anyValue |= c != CellClass::Blank;
+            anyInvalid |= c == CellClass::Invalid;
             if (c == CellClass::Blank) {
                 if (runLength++ == 0)
                     runStart = p;
@@ -681,54 +696,57 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             }
             if (counters) {
                 ++counters[int(c)];
-                countCodes(cell, s, tally->frequencies);
+                countCodes(cell, s, frequencies);
             }
             continue;
         }
-        s.presented[size_t(p)] = 0; // filtered or jumped over
-        if (t.resultIndex < 0)
+        presented[p] = 0; // filtered or jumped over
+        if (resultIndex < 0)
             continue;
-        s.implied[size_t(p)] = 0;
-        s.unknownSkip[size_t(p)] = 0;
+        implied[p] = 0;
+        unknownSkip[p] = 0;
         bool legitimate = true;
-        if (t.type == ItemType::Multi || (t.column >= 0 && !fields[size_t(t.column)].isEmpty())) {
+        if (t.type == ItemType::Multi || (t.column >= 0 && !field[t.column].isEmpty())) {
             Cell cell;
             decode(size_t(p), fields, cell, s);
             legitimate = cell.skipIsLegitimate;
         }
         if (!legitimate) {
-            s.classes[size_t(p)] = CellClass::RoutingViolation;
-            s.anyViolation = true;
+            classes[p] = CellClass::RoutingViolation;
+            anyViolation = true;
             if (counters)
                 ++counters[int(CellClass::RoutingViolation)];
             continue;
         }
-        s.classes[size_t(p)] = CellClass::LegitimateSkip;
+        classes[p] = CellClass::LegitimateSkip;
         for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
             const int g = m_gates[size_t(k)];
-            if (s.presented[size_t(g)] ? isNonresponse(s.classes[size_t(g)])
-                                       : bool(s.unknownSkip[size_t(g)])) {
-                s.unknownSkip[size_t(p)] = 1;
+            if (presented[g] ? isNonresponse(classes[g]) : bool(unknownSkip[g])) {
+                unknownSkip[p] = 1;
                 break;
             }
         }
         if (counters) {
             ++counters[int(CellClass::LegitimateSkip)];
-            counters[SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
+            counters[SkipAfterMissingGate] += unknownSkip[p];
         }
     }
+    s.path.resize(size_t(pathLength));
+    s.loop = false;
+    s.anyValue = anyValue;
+    s.anyViolation = anyViolation;
+    s.anyInvalid = anyInvalid;
     for (int p : m_impliedItems) { // over the route's final values
-        const Hot& t = m_hot[size_t(p)];
-        if (s.classes[size_t(p)] == CellClass::LegitimateSkip &&
+        if (classes[p] == CellClass::LegitimateSkip &&
             (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s))) {
-            s.implied[size_t(p)] = 1;
-            if (tally)
-                ++tally->counters[size_t(t.resultIndex) * kCounters + Implied];
+            implied[p] = 1;
+            if (allCounters)
+                ++allCounters[size_t(hot[p].resultIndex) * kCounters + Implied];
         }
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
-    if (tally && s.breakOffStart >= 0 && s.anyValue)
-        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
+    if (allCounters && s.breakOffStart >= 0 && anyValue)
+        ++allCounters[size_t(hot[runStart].resultIndex) * kCounters + BreakOffStarts];
 }
 
 RecordClassification RecordProgram::toClassification(const Scratch& s) const {

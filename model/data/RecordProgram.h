@@ -185,12 +185,13 @@ private:
         for (int k = 0; k < cell.codesCount; ++k)
             ++frequencies[s.codeSlots[size_t(cell.codesFrom + k)]];
     }
-    // The item's filters hold (forward route).
-    [[gnu::always_inline]] bool filtersHold(const Hot& t, const Scratch& s) const {
+    // The item's filters hold (forward route; live and cells are s's).
+    [[gnu::always_inline]] bool filtersHold(const Hot& t, const uint8_t* live, const Cell* cells,
+                                            const Scratch& s) const {
         if (t.quickNode >= 0) {
             const auto q = size_t(t.quickPosition);
-            if (s.live[q] && s.cells[q].state == cond::CellValue::State::Number)
-                return numbersHold(t.quickOp, s.cells[q].number, t.quickNumber);
+            if (live[q] && cells[q].state == cond::CellValue::State::Number)
+                return numbersHold(t.quickOp, cells[q].number, t.quickNumber);
             return evaluate(t.quickNode, s);
         }
         for (int f = t.filtersFrom; f < t.filtersTo; ++f)
