@@ -641,8 +641,8 @@ void TestDataCheck::blocksAndThreadsGiveTheSameResult() {
 // CsvRange (the fast block parser) against CsvReader (the streaming reader
 // checked against RFC 4180 and Python's csv module in tst_csv) on random bytes
 // built from the characters that matter: same records, same error and place.
-// The second half of the rounds has long plain runs, records of more than 16
-// bytes and larger guards, so that CsvRange's 16-bytes-at-a-time path finds
+// The second half of the rounds has long plain runs, records of more than 32
+// bytes and larger guards, so that CsvRange's 32-bytes-at-a-time path finds
 // whole records, meets a quote or carriage return mid-record and hits the guard.
 void TestDataCheck::rangeParserMatchesStreamingReader() {
     QRandomGenerator rng(4180);
