@@ -18,7 +18,6 @@ struct ChunkTally {
         Invalid = int(CellClass::Invalid),
         LegitimateSkip = int(CellClass::LegitimateSkip),
         Violation = int(CellClass::RoutingViolation),
-        Presented = RecordProgram::Presented,
         SkipAfterMissingGate = RecordProgram::SkipAfterMissingGate,
         BreakOffStarts = RecordProgram::BreakOffStarts,
         Implied = RecordProgram::Implied,

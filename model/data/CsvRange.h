@@ -38,6 +38,7 @@ public:
     static QString guardMessage(qint64 maxRecordBytes);
 
 private:
+    bool nextPlain();
     Status fail(qint64 line, const char* lineStart, const char* at, const QString& message);
 
     const char* m_begin;

@@ -212,7 +212,7 @@ bool Merger::add(const ChunkTally& t) {
     for (qsizetype i = 0; i < m_result.items.size(); ++i) {
         ItemCounts& c = m_result.items[i];
         const qint64* n = t.counters.data() + size_t(i) * ChunkTally::kCounters;
-        c.presented += n[ChunkTally::Presented];
+        c.presented += RecordProgram::presentedCount(n);
         c.answered += n[ChunkTally::Answered];
         for (int k = 0; k < 4; ++k)
             c.nonresponseByKind[size_t(k)] += n[ChunkTally::Blank + k];

@@ -167,7 +167,10 @@ RecordProgram::RecordProgram(const CompiledRouting& routing, const HeaderMapping
             m_impliedItems.push_back(p);
 }
 
+static_assert(sizeof(void*) != 8 || sizeof(RecordProgram::Cell) == 40);
+
 void RecordProgram::buildHot() {
+    static_assert(sizeof(void*) != 8 || sizeof(Hot) == 64);
     m_hot.resize(m_items.size());
     for (size_t p = 0; p < m_items.size(); ++p) {
         const ItemProgram& t = m_items[p];
@@ -176,7 +179,6 @@ void RecordProgram::buildHot() {
         h.hasImplied = t.hasImplied;
         h.resultIndex = t.resultIndex;
         h.column = t.column;
-        h.impliedIf = t.impliedIf;
         h.small = t.small;
         h.frequencyBase = t.frequencyBase;
         h.filtersFrom = int(m_filters.size());
@@ -188,6 +190,15 @@ void RecordProgram::buildHot() {
         h.gatesFrom = int(m_gates.size());
         m_gates.insert(m_gates.end(), t.gates.begin(), t.gates.end());
         h.gatesTo = int(m_gates.size());
+        if (t.filters.size() == 1) {
+            const Node& n = m_nodes[size_t(t.filters.front())];
+            if (n.kind == Kind::Compare && n.isNumber && n.position >= 0) {
+                h.quickNode = t.filters.front();
+                h.quickPosition = n.position;
+                h.quickOp = n.op;
+                h.quickNumber = n.number;
+            }
+        }
     }
 }
 
@@ -196,15 +207,12 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
     if (t.type != ItemType::Single && t.type != ItemType::Integer && t.type != ItemType::Decimal)
         return;
     std::vector<Small> table(kSmallNumbers);
-    Scratch s;
     for (int v = 0; v < kSmallNumbers; ++v) {
         const QByteArray text = QByteArray::number(v);
         Cell cell;
-        s.codes.clear();
-        s.codeSlots.clear();
-        decodeNumber(t, text, cell, s);
+        decodeNumber(t, text, cell);
         table[size_t(v)] = {cell.presentedClass, cell.skipIsLegitimate,
-                            cell.codesCount ? s.codeSlots[0] - t.frequencyBase : -1};
+                            cell.slot >= 0 ? cell.slot - t.frequencyBase : -1};
     }
     for (const auto& shared : m_smallTables)
         if (*shared == table) {
@@ -216,16 +224,18 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
 }
 
 // Cells of 1 to 3 digits by table; false for anything else.
-bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out, Scratch& s) const {
+bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out) const {
     const qsizetype n = v.size();
-    if (!t.small || n > 3)
+    if (!t.small || n == 0 || n > 3)
         return false;
-    int value = 0;
-    for (char c : v) {
-        if (c < '0' || c > '9')
-            return false;
-        value = value * 10 + (c - '0');
-    }
+    // Without a branch on the length (1, 2 or 3 digits alternate in real data):
+    // the digits past the length read the first one again and are not used.
+    const unsigned d0 = unsigned(static_cast<unsigned char>(v[0])) - '0';
+    const unsigned d1 = unsigned(static_cast<unsigned char>(v[n > 1 ? 1 : 0])) - '0';
+    const unsigned d2 = unsigned(static_cast<unsigned char>(v[n > 2 ? 2 : 0])) - '0';
+    if ((d0 > 9) | (d1 > 9) | (d2 > 9))
+        return false;
+    const int value = int(n == 1 ? d0 : (n == 2 ? d0 * 10 + d1 : d0 * 100 + d1 * 10 + d2));
     if (m_skipCodeIsDigits && v == QByteArrayView(m_skipCode))
         return false;
     const Small& e = t.small[value];
@@ -233,12 +243,7 @@ bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out, Scrat
     out.number = value;
     out.presentedClass = e.presentedClass;
     out.skipIsLegitimate = e.skipIsLegitimate;
-    if (e.slot >= 0) {
-        out.codesFrom = int(s.codes.size());
-        out.codesCount = 1;
-        s.codes.push_back(value);
-        s.codeSlots.push_back(t.frequencyBase + e.slot);
-    }
+    out.slot = e.slot >= 0 ? t.frequencyBase + e.slot : -1;
     return true;
 }
 
@@ -305,8 +310,7 @@ bool RecordProgram::isSkipValue(const ItemProgram& t, QByteArrayView cell) const
     return e && e->kind == MissingKind::NotApplicable;
 }
 
-void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out,
-                                 Scratch& s) const {
+void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out) const {
     double v = 0;
     if (!parseCellNumber(cell, v)) { // compared as it stands: text never equals a number
         out.state = State::Text;
@@ -324,10 +328,7 @@ void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell
     const bool whole = std::floor(v) == v && std::abs(v) < 9e15;
     if (e && whole) {
         out.presentedClass = classOfMissing(e->kind);
-        out.codesFrom = int(s.codes.size());
-        out.codesCount = 1;
-        s.codes.push_back(code);
-        s.codeSlots.push_back(t.frequencyBase + e->slot);
+        out.slot = t.frequencyBase + e->slot;
         return;
     }
     bool ok = t.type != ItemType::Single && (t.type == ItemType::Decimal || whole);
@@ -398,8 +399,8 @@ void RecordProgram::decode(size_t p, const std::vector<QByteArrayView>& fields, 
         cell.skipIsLegitimate = isSkipValue(m_items[p], v);
         return;
     }
-    if (!decodeSmall(h, v, cell, s))
-        decodeNumber(m_items[p], v, cell, s);
+    if (!decodeSmall(h, v, cell))
+        decodeNumber(m_items[p], v, cell);
 }
 
 bool RecordProgram::compare(const Cell* cell, cond::CompareOp op, const Literal& v) const {
@@ -561,9 +562,7 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
             s.anyInvalid |= c == CellClass::Invalid;
             if (counters) {
                 ++counters[int(c)];
-                ++counters[Presented];
-                for (int k = 0; k < cell.codesCount; ++k)
-                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+                countCodes(cell, s, tally->frequencies);
             }
             continue;
         }
@@ -583,7 +582,8 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
                 break;
             }
         }
-        if (t.hasImplied && (t.impliedIf < 0 || evaluate(t.impliedIf, s)))
+        if (t.hasImplied &&
+            (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s)))
             s.implied[size_t(p)] = 1;
         if (counters) {
             ++counters[int(c)];
@@ -639,27 +639,39 @@ void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch&
 // skipped cell is not blank; implied values wait for the route's final values.
 void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
                                     const Tally* tally) const {
+    // The scratch arrays through local pointers and the flags in locals: the
+    // byte arrays' stores may alias anything, so through `s` every store would
+    // make the compiler load every array's address again.
     const int count = itemCount();
-    std::fill(s.live.begin(), s.live.end(), 0);
-    s.path.clear();
-    s.loop = false;
-    s.anyValue = s.anyViolation = s.anyInvalid = false;
+    uint8_t* const live = s.live.data();
+    uint8_t* const presented = s.presented.data();
+    uint8_t* const unknownSkip = s.unknownSkip.data();
+    uint8_t* const implied = s.implied.data();
+    CellClass* const classes = s.classes.data();
+    Cell* const cells = s.cells.data();
+    const Hot* const hot = m_hot.data();
+    const QByteArrayView* const field = fields.data();
+    qint64* const allCounters = tally ? tally->counters : nullptr;
+    qint64* const frequencies = tally ? tally->frequencies : nullptr;
+    if (s.path.size() < size_t(count))
+        s.path.resize(size_t(count)); // one pass visits each position at most once
+    int* const path = s.path.data();
+    int pathLength = 0;
+    std::fill(live, live + count, 0);
+    bool anyValue = false, anyViolation = false, anyInvalid = false;
     int next = 0, runStart = -1, runLength = 0;
     for (int p = 0; p < count; ++p) {
-        const Hot& t = m_hot[size_t(p)];
-        bool reached = p >= next;
-        if (reached)
-            for (int f = t.filtersFrom; f < t.filtersTo && reached; ++f)
-                reached = test(m_filters[size_t(f)], s);
-        qint64* counters = tally && t.resultIndex >= 0
-                               ? tally->counters + size_t(t.resultIndex) * kCounters
-                               : nullptr;
-        if (reached) { // presented
-            Cell& cell = s.cells[size_t(p)];
+        const Hot& t = hot[p];
+        const int resultIndex = t.resultIndex;
+        qint64* const counters = allCounters && resultIndex >= 0
+                                     ? allCounters + size_t(resultIndex) * kCounters
+                                     : nullptr;
+        if (p >= next && filtersHold(t, live, cells, s)) { // presented
+            Cell& cell = cells[p];
             decode(size_t(p), fields, cell, s);
-            s.live[size_t(p)] = 1;
-            s.presented[size_t(p)] = 1;
-            s.path.push_back(p);
+            live[p] = 1;
+            presented[p] = 1;
+            path[pathLength++] = p;
             next = p + 1;
             for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
                 const Rule& rule = m_rules[size_t(r)];
@@ -668,14 +680,14 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
                     break;
                 }
             }
-            if (t.resultIndex < 0)
+            if (resultIndex < 0)
                 continue;
             const CellClass c = cell.presentedClass;
-            s.classes[size_t(p)] = c;
-            s.unknownSkip[size_t(p)] = 0;
-            s.implied[size_t(p)] = 0;
-            s.anyValue |= c != CellClass::Blank;
-            s.anyInvalid |= c == CellClass::Invalid;
+            classes[p] = c;
+            unknownSkip[p] = 0;
+            implied[p] = 0;
+            anyValue |= c != CellClass::Blank;
+            anyInvalid |= c == CellClass::Invalid;
             if (c == CellClass::Blank) {
                 if (runLength++ == 0)
                     runStart = p;
@@ -684,56 +696,57 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             }
             if (counters) {
                 ++counters[int(c)];
-                ++counters[Presented];
-                for (int k = 0; k < cell.codesCount; ++k)
-                    ++tally->frequencies[size_t(s.codeSlots[size_t(cell.codesFrom + k)])];
+                countCodes(cell, s, frequencies);
             }
             continue;
         }
-        s.presented[size_t(p)] = 0; // filtered or jumped over
-        if (t.resultIndex < 0)
+        presented[p] = 0; // filtered or jumped over
+        if (resultIndex < 0)
             continue;
-        s.implied[size_t(p)] = 0;
-        s.unknownSkip[size_t(p)] = 0;
+        implied[p] = 0;
+        unknownSkip[p] = 0;
         bool legitimate = true;
-        if (t.type == ItemType::Multi || (t.column >= 0 && !fields[size_t(t.column)].isEmpty())) {
+        if (t.type == ItemType::Multi || (t.column >= 0 && !field[t.column].isEmpty())) {
             Cell cell;
             decode(size_t(p), fields, cell, s);
             legitimate = cell.skipIsLegitimate;
         }
         if (!legitimate) {
-            s.classes[size_t(p)] = CellClass::RoutingViolation;
-            s.anyViolation = true;
+            classes[p] = CellClass::RoutingViolation;
+            anyViolation = true;
             if (counters)
                 ++counters[int(CellClass::RoutingViolation)];
             continue;
         }
-        s.classes[size_t(p)] = CellClass::LegitimateSkip;
+        classes[p] = CellClass::LegitimateSkip;
         for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
             const int g = m_gates[size_t(k)];
-            if (s.presented[size_t(g)] ? isNonresponse(s.classes[size_t(g)])
-                                       : bool(s.unknownSkip[size_t(g)])) {
-                s.unknownSkip[size_t(p)] = 1;
+            if (presented[g] ? isNonresponse(classes[g]) : bool(unknownSkip[g])) {
+                unknownSkip[p] = 1;
                 break;
             }
         }
         if (counters) {
             ++counters[int(CellClass::LegitimateSkip)];
-            counters[SkipAfterMissingGate] += s.unknownSkip[size_t(p)];
+            counters[SkipAfterMissingGate] += unknownSkip[p];
         }
     }
+    s.path.resize(size_t(pathLength));
+    s.loop = false;
+    s.anyValue = anyValue;
+    s.anyViolation = anyViolation;
+    s.anyInvalid = anyInvalid;
     for (int p : m_impliedItems) { // over the route's final values
-        const Hot& t = m_hot[size_t(p)];
-        if (s.classes[size_t(p)] == CellClass::LegitimateSkip &&
-            (t.impliedIf < 0 || evaluate(t.impliedIf, s))) {
-            s.implied[size_t(p)] = 1;
-            if (tally)
-                ++tally->counters[size_t(t.resultIndex) * kCounters + Implied];
+        if (classes[p] == CellClass::LegitimateSkip &&
+            (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s))) {
+            implied[p] = 1;
+            if (allCounters)
+                ++allCounters[size_t(hot[p].resultIndex) * kCounters + Implied];
         }
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
-    if (tally && s.breakOffStart >= 0 && s.anyValue)
-        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
+    if (allCounters && s.breakOffStart >= 0 && anyValue)
+        ++allCounters[size_t(hot[runStart].resultIndex) * kCounters + BreakOffStarts];
 }
 
 RecordClassification RecordProgram::toClassification(const Scratch& s) const {
@@ -746,9 +759,12 @@ RecordClassification RecordProgram::toClassification(const Scratch& s) const {
     r.implied.assign(s.implied.begin(), s.implied.end());
     r.counted.resize(m_items.size());
     for (size_t p = 0; p < m_items.size(); ++p)
-        if (s.presented[p] && m_items[p].resultIndex >= 0)
+        if (s.presented[p] && m_items[p].resultIndex >= 0) {
+            if (s.cells[p].slot >= 0)
+                r.counted[p].append(qint64(s.cells[p].number));
             for (int k = 0; k < s.cells[p].codesCount; ++k)
                 r.counted[p].append(s.codes[size_t(s.cells[p].codesFrom + k)]);
+        }
     r.breakOffStart = s.breakOffStart;
     r.anyValue = s.anyValue;
     return r;

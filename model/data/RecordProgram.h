@@ -25,13 +25,17 @@ public:
     RecordProgram& operator=(const RecordProgram&) = delete;
 
     // A decoded cell: what conditions read and how the cell is classed.
+    // Packed (40 bytes) so that the cells of a 300-item record take less of the
+    // first-level cache; the enums are 8-bit fields.
     struct Cell {
-        cond::CellValue::State state = cond::CellValue::State::Blank;
-        CellClass presentedClass = CellClass::Blank; // when the item is presented
-        bool skipIsLegitimate = true;                // when it is not
         double number = 0;
         QByteArrayView text;
-        int codesFrom = 0, codesCount = 0; // counted codes in Scratch::codes
+        int codesFrom = 0, codesCount = 0; // multi: counted codes in Scratch::codes
+        int slot =
+            -1; // a number that is a listed code: its frequency slot (the code is the number)
+        cond::CellValue::State state : 8 = cond::CellValue::State::Blank;
+        CellClass presentedClass : 8 = CellClass::Blank; // when the item is presented
+        bool skipIsLegitimate = true;                    // when it is not
     };
     // Per-thread working memory, reused for every record.
     struct Scratch {
@@ -49,8 +53,15 @@ public:
     };
 
     // Per-variable counters, kCounters each: one per CellClass (by its value),
-    // then these. Frequencies: one per frequency slot.
-    enum Counter { Presented = 8, SkipAfterMissingGate, BreakOffStarts, Implied, kCounters };
+    // then these. Frequencies: one per frequency slot. Presented cells are the
+    // ones of the classes before LegitimateSkip (presentedCount), not counted apart.
+    enum Counter { SkipAfterMissingGate = 8, BreakOffStarts, Implied, kCounters };
+    static qint64 presentedCount(const qint64* counters) {
+        qint64 n = 0;
+        for (int c = 0; c < int(CellClass::LegitimateSkip); ++c)
+            n += counters[c];
+        return n;
+    }
     struct Tally {
         qint64* counters = nullptr;
         qint64* frequencies = nullptr;
@@ -139,14 +150,19 @@ private:
 
     // What the per-record loops read of an item, packed apart from the rest so
     // that a pass over 300 items stays in the first-level cache.
-    struct Hot {
-        ItemType type = ItemType::Statement;
-        bool hasImplied = false;
-        int resultIndex = -1, column = -1, impliedIf = -1, frequencyBase = 0;
+    struct Hot { // 64 bytes: one cache line per item
         const Small* small = nullptr;
+        // The commonest filter, an item against a number, copied here: its node
+        // is read only when the item is not a number (quickNode, else -1).
+        double quickNumber = 0;
+        int quickNode = -1, quickPosition = -1;
+        int resultIndex = -1, column = -1, frequencyBase = 0;
         int filtersFrom = 0, filtersTo = 0; // in m_filters
         int rulesFrom = 0, rulesTo = 0;     // in m_rules
         int gatesFrom = 0, gatesTo = 0;     // in m_gates
+        ItemType type : 8 = ItemType::Statement;
+        cond::CompareOp quickOp : 8 = cond::CompareOp::Eq;
+        bool hasImplied = false; // impliedIf is in ItemProgram
     };
     void buildHot();
 
@@ -155,13 +171,34 @@ private:
     [[gnu::always_inline]] inline void decode(size_t position,
                                               const std::vector<QByteArrayView>& fields, Cell& cell,
                                               Scratch& s) const;
-    void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out, Scratch& s) const;
+    void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out) const;
     void decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& out,
                      Scratch& s) const;
     bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
     void buildSmallTable(ItemProgram& t);
-    [[gnu::always_inline]] inline bool decodeSmall(const struct Hot& t, QByteArrayView v, Cell& out,
-                                                   Scratch& s) const;
+    [[gnu::always_inline]] inline bool decodeSmall(const struct Hot& t, QByteArrayView v,
+                                                   Cell& out) const;
+    [[gnu::always_inline]] static void countCodes(const Cell& cell, const Scratch& s,
+                                                  qint64* frequencies) {
+        if (cell.slot >= 0)
+            ++frequencies[cell.slot];
+        for (int k = 0; k < cell.codesCount; ++k)
+            ++frequencies[s.codeSlots[size_t(cell.codesFrom + k)]];
+    }
+    // The item's filters hold (forward route; live and cells are s's).
+    [[gnu::always_inline]] bool filtersHold(const Hot& t, const uint8_t* live, const Cell* cells,
+                                            const Scratch& s) const {
+        if (t.quickNode >= 0) {
+            const auto q = size_t(t.quickPosition);
+            if (live[q] && cells[q].state == cond::CellValue::State::Number)
+                return numbersHold(t.quickOp, cells[q].number, t.quickNumber);
+            return evaluate(t.quickNode, s);
+        }
+        for (int f = t.filtersFrom; f < t.filtersTo; ++f)
+            if (!test(m_filters[size_t(f)], s))
+                return false;
+        return true;
+    }
     void route(Scratch& s) const;
     void classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
                          const Tally* tally) const;
@@ -174,23 +211,26 @@ private:
         if (n.kind == cond::Expr::Kind::Compare && n.isNumber && n.position >= 0 &&
             s.live[size_t(n.position)] &&
             s.cells[size_t(n.position)].state == cond::CellValue::State::Number) {
-            const double a = s.cells[size_t(n.position)].number, b = n.number;
-            switch (n.op) {
-            case cond::CompareOp::Eq:
-                return a == b;
-            case cond::CompareOp::Ne:
-                return a != b;
-            case cond::CompareOp::Lt:
-                return a < b;
-            case cond::CompareOp::Le:
-                return a <= b;
-            case cond::CompareOp::Gt:
-                return a > b;
-            case cond::CompareOp::Ge:
-                return a >= b;
-            }
+            return numbersHold(n.op, s.cells[size_t(n.position)].number, n.number);
         }
         return evaluate(node, s);
+    }
+    [[gnu::always_inline]] static bool numbersHold(cond::CompareOp op, double a, double b) {
+        switch (op) {
+        case cond::CompareOp::Eq:
+            return a == b;
+        case cond::CompareOp::Ne:
+            return a != b;
+        case cond::CompareOp::Lt:
+            return a < b;
+        case cond::CompareOp::Le:
+            return a <= b;
+        case cond::CompareOp::Gt:
+            return a > b;
+        case cond::CompareOp::Ge:
+            return a >= b;
+        }
+        return false;
     }
     bool compare(const Cell* cell, cond::CompareOp op, const Literal& v) const;
     bool answered(const Cell* cell, int position, const Scratch& s) const;
