@@ -109,7 +109,6 @@ bool CellInterpreter::isLegitimateSkipValue(const ItemTable& t, QByteArrayView c
     return it != t.codes.constEnd() && *it == MissingKind::NotApplicable;
 }
 
-namespace {
 CellClass classOfMissing(MissingKind kind) {
     switch (kind) {
     case MissingKind::DontKnow:
@@ -123,7 +122,6 @@ CellClass classOfMissing(MissingKind kind) {
     }
     return CellClass::Answered;
 }
-} // namespace
 
 CellReading CellInterpreter::readSingleColumn(const ItemTable& t, QByteArrayView cell) const {
     CellReading r;

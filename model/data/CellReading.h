@@ -28,6 +28,9 @@ inline bool isNonresponse(CellClass c) {
            c == CellClass::NotApplicable;
 }
 
+// The class of a presented cell holding a code of this missing kind (None: answered).
+CellClass classOfMissing(MissingKind kind);
+
 // Numbers in a response file: an optional minus, digits, optionally a point and
 // digits ("3", "-2", "2.5"). Anything else ("1e3", "+4", " 3", ".5") is not a
 // number; the SQL export applies the same rule.

@@ -1,5 +1,7 @@
 #include "RecordProgram.h"
 
+#include "CellReading.h"
+
 #include <cmath>
 #include <cstring>
 
@@ -12,20 +14,6 @@ namespace {
 
 constexpr qint64 kDenseCodeSpan = 4096;
 constexpr int kSmallNumbers = 1000; // cells of 1 to 3 digits
-
-CellClass classOfMissing(MissingKind kind) {
-    switch (kind) {
-    case MissingKind::DontKnow:
-        return CellClass::DontKnow;
-    case MissingKind::Refused:
-        return CellClass::Refused;
-    case MissingKind::NotApplicable:
-        return CellClass::NotApplicable;
-    case MissingKind::None:
-        break;
-    }
-    return CellClass::Answered;
-}
 
 bool isAscii(QByteArrayView bytes) {
     for (char c : bytes)
