@@ -1,6 +1,7 @@
 #include "RecordProgram.h"
 
 #include "CellReading.h"
+#include "routing/Simulator.h"
 
 #include <cmath>
 #include <cstring>
@@ -498,7 +499,7 @@ void RecordProgram::route(Scratch& s) const {
     std::fill(s.presented.begin(), s.presented.end(), 0);
     s.path.clear();
     s.loop = false;
-    const qint64 guard = 4 * qint64(count);
+    const qint64 guard = routeStepLimit(count);
     qint64 steps = 0;
     int position = 0;
     while (position < count) {

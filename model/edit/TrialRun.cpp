@@ -44,7 +44,7 @@ static bool filtersPass(const CompiledRouting::CompiledItem& item, const cond::E
 // the next presented one, the end, or the loop guard.
 void TrialRun::advance(int position, Step* step) {
     const int count = m_routing->itemCount();
-    const qint64 guard = 4 * qint64(count);
+    const qint64 guard = routeStepLimit(count);
     const cond::Environment env = environmentFor(*m_routing, m_values);
     while (position < count) {
         if (++m_guard > guard) {

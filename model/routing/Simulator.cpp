@@ -58,7 +58,7 @@ RouteResult simulateRoute(const CompiledRouting& routing,
     result.values.fill(cond::CellValue::notPresented(), count);
     const cond::Environment env = environmentFor(routing, result.values);
     QList<Evaluation>* evaluated = trace ? &result.evaluated : nullptr;
-    const qint64 guard = 4 * qint64(count);
+    const qint64 guard = routeStepLimit(count);
     qint64 steps = 0;
     int position = 0;
     while (position < count) {

@@ -19,7 +19,13 @@ struct Evaluation {
 //   pos := first item; while pos is not END: if the filters fail, skip it;
 //   else present it, then the first rule whose condition holds jumps, else next.
 // `answerOf(position)` gives the value a presented item records. The loop
-// guard stops after 4 x (number of items) steps.
+// guard stops after routeStepLimit(number of items) steps.
+// DESIGN.md: a route that passes more than 4 x (number of items) steps is a
+// loop. Every walker of the routing (simulator, trial run, data check) stops there.
+inline qint64 routeStepLimit(int itemCount) {
+    return 4 * qint64(itemCount);
+}
+
 struct RouteResult {
     QList<int> path;               // presented positions, in order (repeats possible in a loop)
     bool loop = false;             // true when the guard stopped the route
