@@ -2,6 +2,7 @@
 
 #include "condition/Parser.h"
 #include "condition/TypeCheck.h"
+#include "instrument/NameTable.h"
 
 #include <QHash>
 #include <QSet>
@@ -85,7 +86,8 @@ private:
     const CompiledRouting& m_routing;
     const ItemIndex& m_index;
     Findings m_findings;
-    QHash<QString, Claimant> m_names; // lower-case name -> who claimed it
+    NameTable m_names; // name (any case) -> index in m_claimants
+    QList<Claimant> m_claimants;
 };
 
 QString Checker::Claimant::words() const {
@@ -101,22 +103,23 @@ QString Checker::Claimant::words() const {
 }
 
 void Checker::claimName(const QString& name, const Place& place, const Claimant& who) {
-    const QString key = name.toLower();
-    const auto it = m_names.constFind(key);
-    if (it != m_names.constEnd()) {
+    const int next = int(m_claimants.size());
+    const int holder = m_names.insert(name, next);
+    if (holder != next) {
         add(place, QStringLiteral("duplicate-name"), Severity::Error,
             QStringLiteral("the name '%1' of %2 is already used by %3 (names must be unique "
                            "ignoring case)")
-                .arg(name, who.words(), it->words()));
+                .arg(name, who.words(), m_claimants.at(holder).words()));
         return;
     }
-    m_names.insert(key, who);
+    m_claimants.append(who);
 }
 
 void Checker::checkNames() {
     const Instrument& instrument = m_routing.instrument();
     int position = 0; // flat position of the next item
     m_names.reserve(m_index.size() + instrument.modules.size());
+    m_claimants.reserve(m_index.size() + instrument.modules.size());
     for (const Module& module : instrument.modules) {
         const Place place{nullptr, &module, modulePosition(module), QStringLiteral("name"), {}};
         if (!isValidItemName(module.name))

@@ -22,9 +22,6 @@ constexpr TypeName kTypeNames[] = {
     {ItemType::Decimal, "decimal"},    {ItemType::Text, "text"},   {ItemType::Date, "date"},
     {ItemType::Statement, "statement"}};
 
-QString key(const QString& name) {
-    return name.toLower();
-}
 } // namespace
 
 QString missingKindName(MissingKind kind) {
@@ -85,25 +82,23 @@ ItemIndex::ItemIndex(const Instrument& instrument) {
     for (int m = 0; m < instrument.modules.size(); ++m) {
         const Module& module = instrument.modules.at(m);
         // An empty module's goto lands on whatever follows it.
-        m_moduleFirst.insert(key(module.name), position);
+        m_moduleFirst.insert(module.name, position);
         for (const Item& item : module.items) {
             m_entries.append({&item, &module, m, position});
             // Duplicate names: keep the first occurrence (a duplicate-name finding reports the
             // rest).
-            const QString k = key(item.name);
-            if (!m_byName.contains(k))
-                m_byName.insert(k, position);
+            m_byName.insert(item.name, position);
             ++position;
         }
     }
 }
 
 int ItemIndex::positionOf(const QString& name) const {
-    return m_byName.value(key(name), -1);
+    return m_byName.value(name);
 }
 
 int ItemIndex::modulePosition(const QString& name) const {
-    return m_moduleFirst.value(key(name), -1);
+    return m_moduleFirst.value(name);
 }
 
 int ItemIndex::resolveTarget(const QString& target) const {

@@ -1,5 +1,7 @@
 #pragma once
 
+#include "instrument/NameTable.h"
+
 #include <QHash>
 #include <QList>
 #include <QString>
@@ -146,7 +148,7 @@ public:
     // Position of the item with this name (any case), or -1.
     int positionOf(const QString& name) const;
     // Position of the first item of the module with this name (any case), or -1;
-    // -2 when the module exists but has no items.
+    // an empty module gives the position of the next item after it.
     int modulePosition(const QString& name) const;
     // Resolves a goto target: item position, module's first item position, size()
     // for END, -1 unknown. An empty module resolves to the next item after it.
@@ -154,8 +156,8 @@ public:
 
 private:
     QList<Entry> m_entries;
-    QHash<QString, int> m_byName;
-    QHash<QString, int> m_moduleFirst;
+    NameTable m_byName;
+    NameTable m_moduleFirst;
 };
 
 // Names of the 0/1 variables of a multi item: NAME_CODE per non-missing and missing code.

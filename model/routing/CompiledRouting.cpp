@@ -9,10 +9,6 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
     : m_instrument(&instrument), m_index(instrument) {
     m_items.reserve(m_index.size());
     m_codes.reserve(m_index.size());
-    m_byExactName.reserve(m_index.size());
-    for (const ItemIndex::Entry& entry : m_index.entries())
-        if (!m_byExactName.contains(entry.item->name))
-            m_byExactName.insert(entry.item->name, m_index.positionOf(entry.item->name));
     for (const ItemIndex::Entry& entry : m_index.entries()) {
         CompiledItem compiled;
         if (entry.module->askIf)
@@ -47,8 +43,6 @@ cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
 }
 
 int CompiledRouting::positionOf(const QString& name) const {
-    if (const auto it = m_byExactName.constFind(name); it != m_byExactName.constEnd())
-        return *it;
     return m_index.positionOf(name);
 }
 

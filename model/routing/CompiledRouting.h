@@ -51,9 +51,6 @@ private:
     ItemIndex m_index;
     QList<CompiledItem> m_items;
     QList<QList<Code>> m_codes;
-    // Names as the items spell them -> ItemIndex's answer: conditions mostly
-    // spell names exactly, and this lookup needs no lower-cased copy.
-    QHash<QString, int> m_byExactName;
 };
 
 } // namespace rb

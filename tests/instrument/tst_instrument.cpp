@@ -1,0 +1,126 @@
+// Tests of the name lookups every check and analysis relies on: NameTable and
+// ItemIndex. Names are equal ignoring case as DESIGN.md says; the expected
+// answers below follow from that rule and are worked out by hand.
+
+#include "instrument/Instrument.h"
+#include "instrument/NameTable.h"
+
+#include <QRandomGenerator>
+#include <QTest>
+
+#include <map>
+
+using namespace Qt::StringLiterals;
+using namespace rb;
+
+class TestInstrument : public QObject {
+    Q_OBJECT
+private slots:
+    void sameName_data();
+    void sameName();
+    void firstInsertWins();
+    void growsAndKeepsEveryName();
+    void itemIndexLookups();
+};
+
+void TestInstrument::sameName_data() {
+    QTest::addColumn<QString>("a");
+    QTest::addColumn<QString>("b");
+    QTest::addColumn<bool>("same");
+    QTest::newRow("exact") << u"car_km"_s << u"car_km"_s << true;
+    QTest::newRow("case") << u"Car_KM"_s << u"cAR_km"_s << true;
+    QTest::newRow("digits and _ do not fold") << u"q1_"_s << u"Q1_"_s << true;
+    QTest::newRow("different") << u"car_km"_s << u"car_kn"_s << false;
+    QTest::newRow("prefix") << u"car"_s << u"car_km"_s << false;
+    // '@' (0x40) and '`' (0x60) differ by the ASCII case bit but are not letters.
+    QTest::newRow("case bit on non-letters") << u"a@"_s << u"a`"_s << false;
+    QTest::newRow("[ is not {") << u"x["_s << u"x{"_s << false;
+    QTest::newRow("non-ASCII case") << u"Größe"_s << u"GRÖSSE"_s.replace(u"SS"_s, u"ß"_s) << true;
+    QTest::newRow("non-ASCII different") << u"één"_s << u"een"_s << false;
+    QTest::newRow("empty") << QString() << u""_s << true;
+}
+
+void TestInstrument::sameName() {
+    QFETCH(QString, a);
+    QFETCH(QString, b);
+    QFETCH(bool, same);
+    // The reference rule: equal after QString::toLower().
+    QCOMPARE(a.toLower() == b.toLower(), same);
+    QCOMPARE(NameTable::sameName(a, b), same);
+    QCOMPARE(NameTable::sameName(b, a), same);
+    if (same)
+        QCOMPARE(NameTable::hashName(a), NameTable::hashName(b));
+    NameTable table;
+    table.insert(a, 7);
+    QCOMPARE(table.value(b), same ? 7 : -1);
+}
+
+void TestInstrument::firstInsertWins() {
+    NameTable table;
+    QCOMPARE(table.insert(u"heat"_s, 1), 1);
+    QCOMPARE(table.insert(u"HEAT"_s, 2), 1); // already held: the first value stays
+    QCOMPARE(table.insert(u"solar"_s, 3), 3);
+    QCOMPARE(table.size(), 2);
+    QCOMPARE(table.value(u"Heat"_s), 1);
+    QCOMPARE(table.value(u"SOLAR"_s), 3);
+    QCOMPARE(table.value(u"wind"_s, -9), -9);
+}
+
+void TestInstrument::growsAndKeepsEveryName() {
+    // Against std::map on lower-cased keys, through many growths of the table.
+    QRandomGenerator rng(20261202);
+    NameTable table;
+    std::map<QString, int> reference;
+    for (int i = 0; i < 5000; ++i) {
+        QString name;
+        const int length = 1 + int(rng.bounded(6));
+        for (int c = 0; c < length; ++c)
+            name += QChar(u"aBcDeF_1"[rng.bounded(8)]);
+        const int held = table.insert(name, i);
+        const auto [it, added] = reference.emplace(name.toLower(), i);
+        QCOMPARE(held, it->second);
+        Q_UNUSED(added);
+    }
+    QCOMPARE(table.size(), qsizetype(reference.size()));
+    for (const auto& [lower, value] : reference) {
+        QCOMPARE(table.value(lower), value);
+        QCOMPARE(table.value(lower.toUpper()), value);
+    }
+    QCOMPARE(table.value(u"zz"_s), -1); // 'z' is never drawn above
+}
+
+void TestInstrument::itemIndexLookups() {
+    Instrument instrument;
+    Module home;
+    home.name = u"home"_s;
+    Item a;
+    a.name = u"rooms"_s;
+    Item b;
+    b.name = u"Floors"_s;
+    home.items = {a, b};
+    Module empty;
+    empty.name = u"garden"_s;
+    Module travel;
+    travel.name = u"travel"_s;
+    Item c;
+    c.name = u"car"_s;
+    Item dup;
+    dup.name = u"ROOMS"_s; // a duplicate: the first occurrence keeps the name
+    travel.items = {c, dup};
+    instrument.modules = {home, empty, travel};
+    const ItemIndex index(instrument);
+    QCOMPARE(index.size(), 4);
+    QCOMPARE(index.positionOf(u"floors"_s), 1);
+    QCOMPARE(index.positionOf(u"Rooms"_s), 0);
+    QCOMPARE(index.positionOf(u"CAR"_s), 2);
+    QCOMPARE(index.positionOf(u"bike"_s), -1);
+    QCOMPARE(index.modulePosition(u"TRAVEL"_s), 2);
+    // An empty module resolves to the next item after it (here position 2).
+    QCOMPARE(index.modulePosition(u"garden"_s), 2);
+    QCOMPARE(index.resolveTarget(u"end"_s), 4);
+    QCOMPARE(index.resolveTarget(u"Home"_s), 0);
+    QCOMPARE(index.resolveTarget(u"nowhere"_s), -1);
+}
+
+QTEST_GUILESS_MAIN(TestInstrument)
+#include "tst_instrument.moc"
