@@ -89,25 +89,24 @@ void TestInstrument::growsAndKeepsEveryName() {
     QCOMPARE(table.value(u"zz"_s), -1); // 'z' is never drawn above
 }
 
+namespace {
+Module moduleOf(const QString& name, const QStringList& itemNames) {
+    Module m;
+    m.name = name;
+    for (const QString& itemName : itemNames) {
+        Item item;
+        item.name = itemName;
+        m.items.append(item);
+    }
+    return m;
+}
+} // namespace
+
 void TestInstrument::itemIndexLookups() {
     Instrument instrument;
-    Module home;
-    home.name = u"home"_s;
-    Item a;
-    a.name = u"rooms"_s;
-    Item b;
-    b.name = u"Floors"_s;
-    home.items = {a, b};
-    Module empty;
-    empty.name = u"garden"_s;
-    Module travel;
-    travel.name = u"travel"_s;
-    Item c;
-    c.name = u"car"_s;
-    Item dup;
-    dup.name = u"ROOMS"_s; // a duplicate: the first occurrence keeps the name
-    travel.items = {c, dup};
-    instrument.modules = {home, empty, travel};
+    // "ROOMS" duplicates "rooms": the first occurrence keeps the name.
+    instrument.modules = {moduleOf(u"home"_s, {u"rooms"_s, u"Floors"_s}), moduleOf(u"garden"_s, {}),
+                          moduleOf(u"travel"_s, {u"car"_s, u"ROOMS"_s})};
     const ItemIndex index(instrument);
     QCOMPARE(index.size(), 4);
     QCOMPARE(index.positionOf(u"floors"_s), 1);
