@@ -4,7 +4,6 @@
 #include "condition/TypeCheck.h"
 #include "instrument/NameTable.h"
 
-#include <QHash>
 #include <QSet>
 
 #include <cmath>

@@ -2,7 +2,6 @@
 
 #include "instrument/NameTable.h"
 
-#include <QHash>
 #include <QList>
 #include <QString>
 

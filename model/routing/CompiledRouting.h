@@ -3,7 +3,6 @@
 #include "condition/Expr.h"
 #include "instrument/Instrument.h"
 
-#include <QHash>
 #include <QList>
 
 namespace rb {
