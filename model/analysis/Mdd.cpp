@@ -13,6 +13,7 @@ constexpr int ConstantVar = INT_MAX;
 // set up; large ones get up to 4M entries).
 constexpr std::size_t InitialCache = std::size_t(1) << 12;
 constexpr std::size_t MaxCache = std::size_t(1) << 22;
+constexpr std::size_t kCacheBank = 64;
 
 std::uint64_t mix(std::uint64_t h, std::uint64_t v) {
     h ^= v + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2);
@@ -23,12 +24,12 @@ std::uint64_t mix(std::uint64_t h, std::uint64_t v) {
 Mdd::Mdd() {
     m_nodes.push_back({ConstantVar, 0}); // False
     m_nodes.push_back({ConstantVar, 0}); // True
-    m_table.assign(1 << 12, -1);
     m_cache.resize(InitialCache);
 }
 
 int Mdd::addVar(int domainSize) {
     m_domains.push_back(domainSize);
+    m_unique.push_back({std::vector<int>(4, -1), 0});
     return int(m_domains.size()) - 1;
 }
 
@@ -39,16 +40,19 @@ std::uint64_t Mdd::hashNode(int var, const int* children) const {
     return h;
 }
 
-void Mdd::growTable() {
-    std::vector<int> table(m_table.size() * 2, -1);
+void Mdd::growTable(int var) {
+    UniqueTable& unique = m_unique[var];
+    std::vector<int> table(unique.ids.size() * 2, -1);
     const std::size_t mask = table.size() - 1;
-    for (std::size_t id = 2; id < m_nodes.size(); ++id) {
-        std::size_t slot = hashNode(m_nodes[id].var, &m_pool[m_nodes[id].offset]) & mask;
+    for (int id : unique.ids) {
+        if (id < 0)
+            continue;
+        std::size_t slot = hashNode(var, &m_pool[m_nodes[id].offset]) & mask;
         while (table[slot] >= 0)
             slot = (slot + 1) & mask;
-        table[slot] = int(id);
+        table[slot] = id;
     }
-    m_table.swap(table);
+    unique.ids.swap(table);
 }
 
 int Mdd::make(int var, const int* children) {
@@ -58,14 +62,15 @@ int Mdd::make(int var, const int* children) {
         allSame = children[i] == children[0];
     if (allSame)
         return children[0];
-    if ((m_tableUsed + 1) * 2 > m_table.size())
-        growTable();
-    const std::size_t mask = m_table.size() - 1;
+    if ((m_unique[var].used + 1) * 2 > m_unique[var].ids.size())
+        growTable(var);
+    std::vector<int>& table = m_unique[var].ids;
+    const std::size_t mask = table.size() - 1;
     std::size_t slot = hashNode(var, children) & mask;
-    while (m_table[slot] >= 0) {
-        const Node& node = m_nodes[m_table[slot]];
-        if (node.var == var && std::equal(children, children + size, &m_pool[node.offset]))
-            return m_table[slot];
+    while (table[slot] >= 0) {
+        const Node& node = m_nodes[table[slot]];
+        if (std::equal(children, children + size, &m_pool[node.offset]))
+            return table[slot];
         slot = (slot + 1) & mask;
     }
     const int id = int(m_nodes.size());
@@ -73,8 +78,8 @@ int Mdd::make(int var, const int* children) {
         m_cache.assign(m_cache.size() * 4, CacheEntry{}); // lossy: dropping entries is safe
     m_nodes.push_back({var, int(m_pool.size())});
     m_pool.insert(m_pool.end(), children, children + size);
-    m_table[slot] = id;
-    ++m_tableUsed;
+    table[slot] = id;
+    ++m_unique[var].used;
     return id;
 }
 
@@ -95,19 +100,23 @@ int Mdd::childOn(int f, int v, int cell) const {
     return m_nodes[f].var == v ? child(f, cell) : f;
 }
 
-int Mdd::lookupCache(int op, int a, int b, int c) const {
-    const std::size_t slot =
-        mix(mix(mix(std::uint64_t(op), std::uint64_t(a)), std::uint64_t(b)), std::uint64_t(c)) &
-        (m_cache.size() - 1);
-    const CacheEntry& e = m_cache[slot];
+// Entries whose top variable is the same share a bank of kCacheBank slots: the
+// analysis works on a window of nearby variables at a time, whose banks then
+// stay in the processor's cache where slots spread over the whole table would
+// miss on nearly every lookup.
+std::size_t Mdd::cacheSlot(int op, int a, int b, int c, int var) const {
+    const std::uint64_t h =
+        mix(mix(mix(std::uint64_t(op), std::uint64_t(a)), std::uint64_t(b)), std::uint64_t(c));
+    return (std::size_t(var) * kCacheBank + (h & (kCacheBank - 1))) & (m_cache.size() - 1);
+}
+
+int Mdd::lookupCache(int op, int a, int b, int c, int var) const {
+    const CacheEntry& e = m_cache[cacheSlot(op, a, b, c, var)];
     return (e.op == op && e.a == a && e.b == b && e.c == c) ? e.result : -1;
 }
 
-void Mdd::storeCache(int op, int a, int b, int c, int result) {
-    const std::size_t slot =
-        mix(mix(mix(std::uint64_t(op), std::uint64_t(a)), std::uint64_t(b)), std::uint64_t(c)) &
-        (m_cache.size() - 1);
-    m_cache[slot] = {op, a, b, c, result};
+void Mdd::storeCache(int op, int a, int b, int c, int var, int result) {
+    m_cache[cacheSlot(op, a, b, c, var)] = {op, a, b, c, result};
 }
 
 std::optional<int> Mdd::terminalCase(int op, int f, int g) const {
@@ -147,14 +156,14 @@ int Mdd::apply(int op, int f, int g) {
         return *t;
     if (op != OpDiff && f > g)
         std::swap(f, g); // and/or commute: one cache entry
-    if (const int cached = lookupCache(op, f, g, 0); cached >= 0)
-        return cached;
     const int v = std::min(m_nodes[f].var, m_nodes[g].var);
+    if (const int cached = lookupCache(op, f, g, 0, v); cached >= 0)
+        return cached;
     QVarLengthArray<int, 16> children(m_domains[v]);
     for (int i = 0; i < m_domains[v]; ++i)
         children[i] = apply(op, childOn(f, v, i), childOn(g, v, i));
     const int result = make(v, children.data());
-    storeCache(op, f, g, 0, result);
+    storeCache(op, f, g, 0, v, result);
     return result;
 }
 
@@ -163,24 +172,24 @@ int Mdd::restrict(int f, int v, int cell) {
         return f;
     if (m_nodes[f].var == v)
         return child(f, cell);
-    if (const int cached = lookupCache(OpRestrict, f, v, cell); cached >= 0)
-        return cached;
     const int fv = m_nodes[f].var;
+    if (const int cached = lookupCache(OpRestrict, f, v, cell, fv); cached >= 0)
+        return cached;
     QVarLengthArray<int, 16> children(m_domains[fv]);
     for (int i = 0; i < m_domains[fv]; ++i)
         children[i] = restrict(child(f, i), v, cell);
     const int result = make(fv, children.data());
-    storeCache(OpRestrict, f, v, cell, result);
+    storeCache(OpRestrict, f, v, cell, fv, result);
     return result;
 }
 
 int Mdd::exists(int f, int v) {
     if (isConstant(f) || m_nodes[f].var > v)
         return f;
-    if (const int cached = lookupCache(OpExists, f, v, 0); cached >= 0)
+    const int fv = m_nodes[f].var;
+    if (const int cached = lookupCache(OpExists, f, v, 0, fv); cached >= 0)
         return cached;
     int result = False;
-    const int fv = m_nodes[f].var;
     if (fv == v) {
         for (int i = 0; i < m_domains[v] && result != True; ++i)
             result = orOp(result, child(f, i));
@@ -190,7 +199,7 @@ int Mdd::exists(int f, int v) {
             children[i] = exists(child(f, i), v);
         result = make(fv, children.data());
     }
-    storeCache(OpExists, f, v, 0, result);
+    storeCache(OpExists, f, v, 0, fv, result);
     return result;
 }
 

@@ -63,16 +63,24 @@ private:
 
     int apply(int op, int f, int g);
     std::optional<int> terminalCase(int op, int f, int g) const;
-    int lookupCache(int op, int a, int b, int c) const;
-    void storeCache(int op, int a, int b, int c, int result);
+    std::size_t cacheSlot(int op, int a, int b, int c, int var) const;
+    int lookupCache(int op, int a, int b, int c, int var) const;
+    void storeCache(int op, int a, int b, int c, int var, int result);
     std::uint64_t hashNode(int var, const int* children) const;
-    void growTable();
+    void growTable(int var);
 
     std::vector<int> m_domains;
     std::vector<Node> m_nodes;
     std::vector<int> m_pool;
-    std::vector<int> m_table; // open addressing over node ids; -1 empty
-    std::size_t m_tableUsed = 0;
+    // The unique table, one open-addressing table of node ids (-1 empty) per
+    // variable: the analysis works on a window of nearby variables at a time,
+    // so their small tables stay in the cache where one big table would miss
+    // on every probe.
+    struct UniqueTable {
+        std::vector<int> ids;
+        std::size_t used = 0;
+    };
+    std::vector<UniqueTable> m_unique;
     std::vector<CacheEntry> m_cache;                        // lossy, direct mapped
     mutable std::vector<std::uint32_t> m_stamp, m_varStamp; // visit marks for support()
     mutable std::uint32_t m_generation = 0;
