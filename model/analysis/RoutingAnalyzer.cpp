@@ -68,6 +68,7 @@ void RoutingAnalyzer::run() {
     if (n > 0)
         pending[0] = loosePending[0] = Mdd::True;
     m_reached.assign(n, Mdd::False);
+    m_consistency.assign(n, -1);
     m_presented.assign(n, Mdd::False);
     m_loose.assign(n, Mdd::False);
     m_looseReached.assign(n, Mdd::False);
@@ -132,13 +133,13 @@ QList<int> RoutingAnalyzer::positionsOf(const std::vector<int>& vars) const {
 }
 
 int RoutingAnalyzer::consistency(int position) {
-    if (const auto it = m_consistency.constFind(position); it != m_consistency.constEnd())
-        return *it;
+    if (m_consistency[position] >= 0)
+        return m_consistency[position];
     Mdd& mdd = m_algebra.mdd();
     const int loose = m_loose.at(position);
     const int c = mdd.orOp(mdd.andOp(m_algebra.presentedOf(position), loose),
                            mdd.diff(m_algebra.emptyOf(position), loose));
-    m_consistency.insert(position, c);
+    m_consistency[position] = c;
     return c;
 }
 

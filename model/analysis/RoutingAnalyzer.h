@@ -70,7 +70,7 @@ private:
     std::vector<std::vector<int>> m_feasible;      // feasible edges (targets) per position
     std::vector<std::vector<int>> m_loops;
     std::vector<bool> m_inLoop;
-    QHash<int, int> m_consistency;
+    std::vector<int> m_consistency;    // per position, -1 until asked for
     QHash<QString, int> m_readWitness; // reads-unasked-item id -> witness set
     std::vector<int> m_scratch;        // a cell per variable, all 0 between uses
 };
