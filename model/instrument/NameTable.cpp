@@ -3,7 +3,7 @@
 namespace rb {
 
 namespace {
-bool isAscii(const QString& s) {
+bool isAscii(QStringView s) {
     for (const QChar c : s)
         if (c.unicode() >= 0x80)
             return false;
@@ -17,7 +17,7 @@ char16_t foldAscii(char16_t c) {
 // FNV-1a over the UTF-16 units of the lower-cased name, then a final mix so
 // that names differing in their last digit spread over the low bits the table
 // uses (item names are often numbered).
-std::uint32_t fnv(const QString& lower, bool fold) {
+std::uint32_t fnv(QStringView lower, bool fold) {
     std::uint32_t h = 2166136261u;
     for (const QChar c : lower) {
         h ^= fold ? foldAscii(c.unicode()) : c.unicode();
@@ -32,12 +32,12 @@ std::uint32_t fnv(const QString& lower, bool fold) {
 }
 } // namespace
 
-std::uint32_t NameTable::hashName(const QString& name) {
+std::uint32_t NameTable::hashName(QStringView name) {
     // ASCII lower-cases unit by unit, so folding in place equals hashing toLower().
-    return isAscii(name) ? fnv(name, true) : fnv(name.toLower(), false);
+    return isAscii(name) ? fnv(name, true) : fnv(name.toString().toLower(), false);
 }
 
-bool NameTable::sameName(const QString& a, const QString& b) {
+bool NameTable::sameName(QStringView a, QStringView b) {
     if (a.size() == b.size()) {
         const QChar* pa = a.constData();
         const QChar* pb = b.constData();
@@ -54,21 +54,21 @@ bool NameTable::sameName(const QString& a, const QString& b) {
     } else if (isAscii(a) && isAscii(b)) {
         return false;
     }
-    return a.toLower() == b.toLower(); // lower-casing may change lengths outside ASCII
+    return a.toString().toLower() == b.toString().toLower(); // lengths may change outside ASCII
 }
 
 void NameTable::reserve(qsizetype names) {
-    m_entries.reserve(std::size_t(names));
+    m_chars.reserve(std::size_t(names) * 8);
     while (m_slots.size() < std::size_t(names) * 2)
         grow();
 }
 
-std::size_t NameTable::find(const QString& name, std::uint32_t hash) const {
+std::size_t NameTable::find(QStringView name, std::uint32_t hash) const {
     const std::size_t mask = m_slots.size() - 1;
     std::size_t slot = hash & mask;
-    while (m_slots[slot].entry >= 0) {
+    while (m_slots[slot].length >= 0) {
         const Slot& s = m_slots[slot];
-        if (s.hash == hash && sameName(m_entries[std::size_t(s.entry)].name, name))
+        if (s.hash == hash && sameName(nameOf(s), name))
             return slot;
         slot = (slot + 1) & mask;
     }
@@ -79,10 +79,10 @@ void NameTable::grow() {
     std::vector<Slot> bigger(m_slots.size() * 2);
     const std::size_t mask = bigger.size() - 1;
     for (const Slot& s : m_slots) {
-        if (s.entry < 0)
+        if (s.length < 0)
             continue;
         std::size_t slot = s.hash & mask;
-        while (bigger[slot].entry >= 0)
+        while (bigger[slot].length >= 0)
             slot = (slot + 1) & mask;
         bigger[slot] = s;
     }
@@ -92,20 +92,21 @@ void NameTable::grow() {
 int NameTable::insert(const QString& name, int value) {
     const std::uint32_t hash = hashName(name);
     std::size_t slot = find(name, hash);
-    if (m_slots[slot].entry >= 0)
-        return m_entries[std::size_t(m_slots[slot].entry)].value;
-    if ((m_entries.size() + 1) * 2 > m_slots.size()) {
+    if (m_slots[slot].length >= 0)
+        return m_slots[slot].value;
+    if (std::size_t(m_size + 1) * 2 > m_slots.size()) {
         grow();
         slot = find(name, hash);
     }
-    m_slots[slot] = {hash, std::int32_t(m_entries.size())};
-    m_entries.push_back({name, value});
+    m_slots[slot] = {hash, value, std::uint32_t(m_chars.size()), std::int32_t(name.size())};
+    m_chars.insert(m_chars.end(), name.utf16(), name.utf16() + name.size());
+    ++m_size;
     return value;
 }
 
 int NameTable::value(const QString& name, int absent) const {
     const Slot& s = m_slots[find(name, hashName(name))];
-    return s.entry >= 0 ? m_entries[std::size_t(s.entry)].value : absent;
+    return s.length >= 0 ? s.value : absent;
 }
 
 } // namespace rb

@@ -10,9 +10,11 @@ namespace rb {
 // Names -> small integers, ignoring case the way Routebook's names do
 // (QString::toLower()). Built for the lookups every check and analysis makes
 // per condition atom: an all-ASCII name is hashed and compared in place, with
-// no lower-cased copy, and the table is flat (8 bytes a slot) so that large
-// instruments stay in the CPU caches. Names outside ASCII take the slow,
-// allocating path, with the same answer.
+// no lower-cased copy. The table is flat: a slot holds the hash, the value and
+// where the name's characters sit in one array of all names, so a lookup
+// touches one slot and one run of characters (not the caller's strings, which
+// lie all over memory in a large instrument). Names outside ASCII take the
+// slow, allocating path, with the same answer.
 class NameTable {
 public:
     void reserve(qsizetype names);
@@ -21,26 +23,28 @@ public:
     int insert(const QString& name, int value);
     // The value for the name (any case), or `absent`.
     int value(const QString& name, int absent = -1) const;
-    qsizetype size() const { return qsizetype(m_entries.size()); }
+    qsizetype size() const { return m_size; }
 
-    static bool sameName(const QString& a, const QString& b);
-    static std::uint32_t hashName(const QString& name);
+    static bool sameName(QStringView a, QStringView b);
+    static std::uint32_t hashName(QStringView name);
 
 private:
     struct Slot {
         std::uint32_t hash = 0;
-        std::int32_t entry = -1; // index into m_entries; -1 empty
+        std::int32_t value = 0;
+        std::uint32_t from = 0;   // the name in m_chars
+        std::int32_t length = -1; // -1: empty slot
     };
-    struct Entry {
-        QString name;
-        int value;
-    };
+    QStringView nameOf(const Slot& s) const {
+        return QStringView(m_chars.data() + s.from, qsizetype(s.length));
+    }
     // The slot holding the name, or the empty slot where it would go.
-    std::size_t find(const QString& name, std::uint32_t hash) const;
+    std::size_t find(QStringView name, std::uint32_t hash) const;
     void grow();
 
     std::vector<Slot> m_slots = std::vector<Slot>(16);
-    std::vector<Entry> m_entries;
+    std::vector<char16_t> m_chars; // every name, as given, one after the other
+    qsizetype m_size = 0;
 };
 
 } // namespace rb
