@@ -2,38 +2,45 @@
 
 namespace rb {
 
+void appendCsvField(QByteArray& out, QByteArrayView field) {
+    bool quote = false;
+    for (char c : field)
+        quote |= c == ',' || c == '"' || c == '\n' || c == '\r';
+    if (!quote) {
+        out.append(field);
+        return;
+    }
+    out += '"';
+    for (char c : field) {
+        if (c == '"')
+            out += '"';
+        out += c;
+    }
+    out += '"';
+}
+
 CsvAnalysisWriter::~CsvAnalysisWriter() {
     flush();
 }
 
-void CsvAnalysisWriter::appendField(const QByteArray& field) {
-    const bool quote =
-        field.contains(',') || field.contains('"') || field.contains('\n') || field.contains('\r');
-    if (!quote) {
-        m_buffer += field;
-        return;
-    }
-    QByteArray escaped = field;
-    escaped.replace("\"", "\"\"");
-    m_buffer += '"' + escaped + '"';
-}
-
 void CsvAnalysisWriter::header(const QStringList& columns) {
-    QList<QByteArray> cells;
-    for (const QString& c : columns)
-        cells.append(c.toUtf8());
-    row(cells);
-}
-
-void CsvAnalysisWriter::row(const QList<QByteArray>& cells) {
-    for (qsizetype i = 0; i < cells.size(); ++i) {
+    for (qsizetype i = 0; i < columns.size(); ++i) {
         if (i)
             m_buffer += ',';
-        appendField(cells.at(i));
+        appendCsvField(m_buffer, columns.at(i).toUtf8());
     }
     m_buffer += "\r\n";
-    if (m_buffer.size() > (1 << 20))
+}
+
+void CsvAnalysisWriter::rows(QByteArrayView csv) {
+    if (m_buffer.size() + csv.size() > (1 << 20))
         flush();
+    if (csv.size() > (1 << 20)) { // a whole block: straight to the device
+        if (m_device.write(csv.data(), csv.size()) != csv.size())
+            m_failed = true;
+        return;
+    }
+    m_buffer.append(csv);
 }
 
 bool CsvAnalysisWriter::flush() {

@@ -1,12 +1,13 @@
 #include "ChunkChecker.h"
 
+#include "AnalysisFile.h"
 #include "CsvRange.h"
 
 namespace rb {
 
 namespace {
 
-QByteArray flagOf(CellClass c, bool implied) {
+QByteArrayView flagOf(CellClass c, bool implied) {
     switch (c) {
     case CellClass::Answered:
         return "answered";
@@ -25,9 +26,9 @@ QByteArray flagOf(CellClass c, bool implied) {
 
 ChunkChecker::ChunkChecker(const CompiledRouting& routing, const RecordProgram& program,
                            const HeaderMapping& mapping, const DataCheckOptions& options,
-                           const AnalysisOptions& analysisOptions)
+                           const AnalysisOptions& analysisOptions, bool analysisRows)
     : m_routing(routing), m_program(program), m_mapping(mapping), m_options(options),
-      m_analysis(analysisOptions),
+      m_analysis(analysisOptions), m_analysisRows(analysisRows),
       m_skipCode(routing.instrument().settings.legitimateSkipCode.toUtf8()) {
     m_options.progress = nullptr; // progress is the merging thread's business
     program.prepare(m_scratch);
@@ -36,10 +37,10 @@ ChunkChecker::ChunkChecker(const CompiledRouting& routing, const RecordProgram& 
         m_impliedValues.push_back(item.whenSkipped ? item.whenSkipped->value.toUtf8()
                                                    : QByteArray());
     }
+    m_override.assign(size_t(mapping.columnCount), nullptr);
 }
 
-void ChunkChecker::run(const char* begin, const char* end, bool truncated, ChunkTally& tally,
-                       AnalysisSink* analysis) {
+void ChunkChecker::run(const char* begin, const char* end, bool truncated, ChunkTally& tally) {
     tally.counters.assign(size_t(m_program.variables()) * ChunkTally::kCounters, 0);
     tally.frequencies.assign(size_t(m_program.frequencySlots()), 0);
     if (truncated) { // the block holds only the start of one overlong record
@@ -60,10 +61,8 @@ void ChunkChecker::run(const char* begin, const char* end, bool truncated, Chunk
         }
         m_program.classify(fields, m_scratch, &counts);
         count(record, range.recordLine(), fields, tally);
-        if (analysis) {
-            writeRow(fields);
-            analysis->row(m_row);
-        }
+        if (m_analysisRows)
+            writeRow(fields, tally.analysisRows);
     }
     if (status == CsvRange::Status::Error) {
         const CsvRange::Error& e = range.error();
@@ -113,27 +112,44 @@ void ChunkChecker::count(qint64 record, qint64 line, const std::vector<QByteArra
         note(problems[ChunkTally::Loops], record, fields);
 }
 
-void ChunkChecker::writeRow(const std::vector<QByteArrayView>& fields) {
+// The record as it came, with legitimate skips coded (the skip code, or the
+// implied value where it holds), then the flags; no allocation per cell.
+void ChunkChecker::writeRow(const std::vector<QByteArrayView>& fields, QByteArray& out) {
     const RecordProgram::Scratch& s = m_scratch;
-    m_row.clear();
-    for (QByteArrayView f : fields)
-        m_row.append(f.toByteArray());
+    auto override = [&](int column, const QByteArray& value) {
+        if (column < 0)
+            return;
+        if (!m_override[size_t(column)])
+            m_overridden.push_back(column);
+        m_override[size_t(column)] = &value;
+    };
     for (int p = 0; p < m_routing.itemCount(); ++p) {
         if (!m_program.hasVariable(p) || s.classes[size_t(p)] != CellClass::LegitimateSkip)
             continue;
-        const QByteArray value = s.implied[size_t(p)] ? m_impliedValues[size_t(p)] : m_skipCode;
+        const QByteArray& value = s.implied[size_t(p)] ? m_impliedValues[size_t(p)] : m_skipCode;
         if (m_routing.index().at(p).item->type == ItemType::Multi) {
             for (int c : m_mapping.multiColumns[size_t(p)])
-                if (c >= 0)
-                    m_row[c] = value;
-        } else if (const int c = m_mapping.column[size_t(p)]; c >= 0) {
-            m_row[c] = value;
+                override(c, value);
+        } else {
+            override(m_mapping.column[size_t(p)], value);
         }
     }
+    for (size_t c = 0; c < fields.size(); ++c) {
+        if (c)
+            out += ',';
+        const QByteArray* value = m_override[c];
+        appendCsvField(out, value ? QByteArrayView(*value) : fields[c]);
+    }
+    for (int c : m_overridden)
+        m_override[size_t(c)] = nullptr;
+    m_overridden.clear();
     if (m_analysis.flags)
         for (int p = 0; p < m_routing.itemCount(); ++p)
-            if (m_program.hasVariable(p))
-                m_row.append(flagOf(s.classes[size_t(p)], s.implied[size_t(p)]));
+            if (m_program.hasVariable(p)) {
+                out += ',';
+                out.append(flagOf(s.classes[size_t(p)], s.implied[size_t(p)]));
+            }
+    out += "\r\n";
 }
 
 } // namespace rb

@@ -46,6 +46,7 @@ struct ChunkTally {
     std::vector<qint64> frequencies; // RecordProgram frequency slots
     std::array<Problems, kProblems> problems;
     std::vector<InvalidCell> invalidCells;
+    QByteArray analysisRows; // the block's analysis-file rows, when asked for
     qint64 records = 0, lines = 0;
     std::optional<Error> error;
 };
@@ -55,28 +56,29 @@ class ChunkChecker {
 public:
     ChunkChecker(const CompiledRouting& routing, const RecordProgram& program,
                  const HeaderMapping& mapping, const DataCheckOptions& options,
-                 const AnalysisOptions& analysisOptions);
+                 const AnalysisOptions& analysisOptions, bool analysisRows);
 
     // `truncated`: the block is the start of a record longer than the guard.
-    void run(const char* begin, const char* end, bool truncated, ChunkTally& tally,
-             AnalysisSink* analysis);
+    void run(const char* begin, const char* end, bool truncated, ChunkTally& tally);
 
 private:
     void count(qint64 record, qint64 line, const std::vector<QByteArrayView>& fields,
                ChunkTally& tally) const;
     void note(ChunkTally::Problems& problems, qint64 record,
               const std::vector<QByteArrayView>& fields) const;
-    void writeRow(const std::vector<QByteArrayView>& fields);
+    void writeRow(const std::vector<QByteArrayView>& fields, QByteArray& out);
 
     const CompiledRouting& m_routing;
     const RecordProgram& m_program;
     const HeaderMapping& m_mapping;
     DataCheckOptions m_options;
     AnalysisOptions m_analysis;
+    bool m_analysisRows;
     RecordProgram::Scratch m_scratch;
     std::vector<QByteArray> m_impliedValues; // per position
     QByteArray m_skipCode;
-    QList<QByteArray> m_row;
+    std::vector<const QByteArray*> m_override; // per column: the analysis value, or null
+    std::vector<int> m_overridden;             // the columns set in m_override
 };
 
 } // namespace rb

@@ -301,7 +301,7 @@ private:
             }
             const QByteArray& b = task.block.bytes;
             checker.run(b.constData() + task.offset, b.constData() + b.size(), task.block.truncated,
-                        task.tally, nullptr);
+                        task.tally);
             task.block.bytes = QByteArray(); // free the block before the merge
             {
                 std::lock_guard lock(m_mutex);
@@ -321,9 +321,7 @@ private:
     bool m_stop = false;
 };
 
-int workerCount(const DataCheckOptions& options, AnalysisSink* analysis) {
-    if (analysis)
-        return 0; // rows go out in file order from the calling thread
+int workerCount(const DataCheckOptions& options) {
     const int wanted = options.threads > 0 ? options.threads : QThread::idealThreadCount();
     return qBound(1, wanted, 16);
 }
@@ -334,7 +332,10 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
                               const QString& fileName, const DataCheckOptions& options,
                               AnalysisSink* analysis, const AnalysisOptions& analysisOptions) {
     DataCheckOutcome outcome;
-    BlockReader reader(csv, options.maxRecordBytes, options.blockBytes);
+    // A block's analysis rows are as long as the block and, with flags, several
+    // times longer: smaller blocks keep the rows in flight as small as the blocks were.
+    BlockReader reader(csv, options.maxRecordBytes,
+                       analysis ? qMax<qsizetype>(options.blockBytes / 4, 1) : options.blockBytes);
     Task first;
     if (!reader.next(first.block)) {
         outcome.error = Diagnostic{
@@ -367,9 +368,10 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
     Merger merger(routing, mapping, program, fileName, options);
     merger.setStart(1 + header.linesDone());
     auto makeChecker = [&] {
-        return ChunkChecker(routing, program, mapping, options, analysisOptions);
+        return ChunkChecker(routing, program, mapping, options, analysisOptions,
+                            analysis != nullptr);
     };
-    const int threads = workerCount(options, analysis);
+    const int threads = workerCount(options);
     qint64 checkedBytes = reader.skippedBytes();
     auto progress = [&](qint64 blockBytes) {
         checkedBytes += blockBytes;
@@ -379,26 +381,6 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
         outcome.error = merger.at(QStringLiteral("the data check was cancelled"));
         return outcome;
     };
-
-    if (threads == 0) { // one thread: rows in file order to the analysis sink
-        ChunkChecker checker = makeChecker();
-        Task task = std::move(first);
-        do {
-            const QByteArray& b = task.block.bytes;
-            task.tally = ChunkTally();
-            checker.run(b.constData() + task.offset, b.constData() + b.size(), task.block.truncated,
-                        task.tally, analysis);
-            if (!merger.add(task.tally)) {
-                outcome.error = merger.error();
-                return outcome;
-            }
-            if (!progress(b.size()))
-                return cancelled();
-            task.offset = 0;
-        } while (reader.next(task.block));
-        outcome.result = merger.take();
-        return outcome;
-    }
 
     // Several threads: a few blocks in flight, merged in file order as they come back.
     WorkerPool pool(threads, makeChecker);
@@ -428,6 +410,8 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
             outcome.error = merger.error();
             return outcome;
         }
+        if (analysis) // in file order; an error above leaves the rest unwritten
+            analysis->rows(done.tally.analysisRows);
         if (!progress(done.bytes))
             return cancelled();
     }

@@ -71,7 +71,7 @@ struct DataCheckOptions {
     int firstRecordsKept = 10;
     int invalidCellsKept = 20;
     // Worker threads for the records (0: one per core). The result does not
-    // depend on it; with an analysis file the records are checked in one thread.
+    // depend on it (nor does the analysis file's order).
     int threads = 0;
     // Records are read and checked in blocks of about this many bytes (tests use
     // tiny blocks to exercise the merge).
@@ -86,7 +86,10 @@ class AnalysisSink {
 public:
     virtual ~AnalysisSink() = default;
     virtual void header(const QStringList& columns) = 0;
-    virtual void row(const QList<QByteArray>& cells) = 0;
+    // Whole rows, already RFC 4180 CSV with CRLF line ends (appendCsvField), in
+    // file order. The blocks are written by the checking threads; only the
+    // ordered hand-over happens on the calling thread.
+    virtual void rows(QByteArrayView csv) = 0;
 };
 
 struct AnalysisOptions {
