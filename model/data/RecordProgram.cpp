@@ -647,8 +647,9 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     int* const path = s.path.data();
     int pathLength = 0;
     std::fill(live, live + count, 0);
-    bool anyValue = false, anyViolation = false, anyInvalid = false;
-    int next = 0, runStart = -1, runLength = 0;
+    // The classes met, one bit each: one register instead of a flag per question.
+    unsigned seen = 0;
+    int next = 0;
     for (int p = 0; p < count; ++p) {
         const Hot& t = hot[p];
         const int resultIndex = t.resultIndex;
@@ -675,14 +676,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             classes[p] = c;
             unknownSkip[p] = 0;
             implied[p] = 0;
-            anyValue |= c != CellClass::Blank;
-            anyInvalid |= c == CellClass::Invalid;
-            if (c == CellClass::Blank) {
-                if (runLength++ == 0)
-                    runStart = p;
-            } else {
-                runLength = 0;
-            }
+            seen |= 1u << int(c);
             if (counters) {
                 ++counters[int(c)];
                 countCodes(cell, s, frequencies);
@@ -702,7 +696,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
         }
         if (!legitimate) {
             classes[p] = CellClass::RoutingViolation;
-            anyViolation = true;
+            seen |= 1u << int(CellClass::RoutingViolation);
             if (counters)
                 ++counters[int(CellClass::RoutingViolation)];
             continue;
@@ -722,9 +716,11 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     }
     s.path.resize(size_t(pathLength));
     s.loop = false;
+    constexpr unsigned presentedClasses = (1u << int(CellClass::LegitimateSkip)) - 1;
+    const bool anyValue = seen & presentedClasses & ~(1u << int(CellClass::Blank));
     s.anyValue = anyValue;
-    s.anyViolation = anyViolation;
-    s.anyInvalid = anyInvalid;
+    s.anyViolation = seen & (1u << int(CellClass::RoutingViolation));
+    s.anyInvalid = seen & (1u << int(CellClass::Invalid));
     for (int p : m_impliedItems) { // over the route's final values
         if (classes[p] == CellClass::LegitimateSkip &&
             (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s))) {
@@ -732,6 +728,18 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             if (allCounters)
                 ++allCounters[size_t(hot[p].resultIndex) * kCounters + Implied];
         }
+    }
+    // The run of blank presented variables that ends the route, found from the
+    // end (the loop above would track it at every cell).
+    int runStart = -1, runLength = 0;
+    for (int k = pathLength - 1; k >= 0; --k) {
+        const int p = path[k];
+        if (hot[p].resultIndex < 0)
+            continue;
+        if (classes[p] != CellClass::Blank)
+            break;
+        runStart = p;
+        ++runLength;
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
     if (allCounters && s.breakOffStart >= 0 && anyValue)
