@@ -166,7 +166,7 @@ void RecordProgram::buildHot() {
         Hot& h = m_hot[p];
         h.type = t.type;
         h.hasImplied = t.hasImplied;
-        h.resultIndex = t.resultIndex;
+        h.counterOffset = t.resultIndex < 0 ? -1 : t.resultIndex * kCounters;
         h.column = t.column;
         h.small = t.small;
         h.frequencyBase = t.frequencyBase;
@@ -540,9 +540,9 @@ void RecordProgram::classifyCells(Scratch& s, const Tally* tally) const {
     s.anyValue = s.anyViolation = s.anyInvalid = false;
     for (int p = 0; p < itemCount(); ++p) {
         const Hot& t = m_hot[size_t(p)];
-        if (t.resultIndex < 0)
+        if (t.counterOffset < 0)
             continue;
-        qint64* counters = tally ? tally->counters + size_t(t.resultIndex) * kCounters : nullptr;
+        qint64* counters = tally ? tally->counters + t.counterOffset : nullptr;
         const Cell& cell = s.cells[size_t(p)];
         CellClass& c = s.classes[size_t(p)];
         if (s.presented[size_t(p)]) {
@@ -591,7 +591,7 @@ void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
     }
     int runStart = -1, runLength = 0;
     for (int p : s.path) {
-        if (m_hot[size_t(p)].resultIndex < 0 || s.seen[size_t(p)] == s.stamp)
+        if (m_hot[size_t(p)].counterOffset < 0 || s.seen[size_t(p)] == s.stamp)
             continue;
         s.seen[size_t(p)] = s.stamp;
         if (s.classes[size_t(p)] == CellClass::Blank) {
@@ -603,7 +603,7 @@ void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
     if (tally && s.breakOffStart >= 0 && s.anyValue) // an empty record is no break-off
-        ++tally->counters[size_t(m_hot[size_t(runStart)].resultIndex) * kCounters + BreakOffStarts];
+        ++tally->counters[m_hot[size_t(runStart)].counterOffset + BreakOffStarts];
 }
 
 void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch& s,
@@ -652,10 +652,9 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     int next = 0;
     for (int p = 0; p < count; ++p) {
         const Hot& t = hot[p];
-        const int resultIndex = t.resultIndex;
-        qint64* const counters = allCounters && resultIndex >= 0
-                                     ? allCounters + size_t(resultIndex) * kCounters
-                                     : nullptr;
+        const int counterOffset = t.counterOffset;
+        qint64* const counters =
+            allCounters && counterOffset >= 0 ? allCounters + counterOffset : nullptr;
         if (p >= next && filtersHold(t, live, cells, s)) { // presented
             Cell& cell = cells[p];
             decode(size_t(p), fields, cell, s);
@@ -670,7 +669,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
                     break;
                 }
             }
-            if (resultIndex < 0)
+            if (counterOffset < 0)
                 continue;
             const CellClass c = cell.presentedClass;
             classes[p] = c;
@@ -684,7 +683,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             continue;
         }
         presented[p] = 0; // filtered or jumped over
-        if (resultIndex < 0)
+        if (counterOffset < 0)
             continue;
         implied[p] = 0;
         unknownSkip[p] = 0;
@@ -726,7 +725,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
             (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s))) {
             implied[p] = 1;
             if (allCounters)
-                ++allCounters[size_t(hot[p].resultIndex) * kCounters + Implied];
+                ++allCounters[hot[p].counterOffset + Implied];
         }
     }
     // The run of blank presented variables that ends the route, found from the
@@ -734,7 +733,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     int runStart = -1, runLength = 0;
     for (int k = pathLength - 1; k >= 0; --k) {
         const int p = path[k];
-        if (hot[p].resultIndex < 0)
+        if (hot[p].counterOffset < 0)
             continue;
         if (classes[p] != CellClass::Blank)
             break;
@@ -743,7 +742,7 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
     if (allCounters && s.breakOffStart >= 0 && anyValue)
-        ++allCounters[size_t(hot[runStart].resultIndex) * kCounters + BreakOffStarts];
+        ++allCounters[hot[runStart].counterOffset + BreakOffStarts];
 }
 
 RecordClassification RecordProgram::toClassification(const Scratch& s) const {

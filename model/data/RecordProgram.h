@@ -156,7 +156,8 @@ private:
         // is read only when the item is not a number (quickNode, else -1).
         double quickNumber = 0;
         int quickNode = -1, quickPosition = -1;
-        int resultIndex = -1, column = -1, frequencyBase = 0;
+        int counterOffset = -1; // resultIndex * kCounters; -1: no variable
+        int column = -1, frequencyBase = 0;
         int filtersFrom = 0, filtersTo = 0; // in m_filters
         int rulesFrom = 0, rulesTo = 0;     // in m_rules
         int gatesFrom = 0, gatesTo = 0;     // in m_gates
