@@ -101,7 +101,7 @@ void ConditionAlgebra::collect(const cond::Expr& expr) {
             collect(*c);
         return;
     }
-    const int position = m_routing->positionOf(expr.name);
+    const int position = m_routing->positionOf(expr);
     if (position < 0 || m_routing->index().at(position).item->type == ItemType::Statement)
         return;
     ItemAtoms& atoms = m_atoms[position];
@@ -362,7 +362,7 @@ int ConditionAlgebra::condition(const cond::Expr& expr) {
 int ConditionAlgebra::atom(const cond::Expr& expr) {
     if (const auto it = m_atomCache.constFind(&expr); it != m_atomCache.constEnd())
         return *it;
-    const int position = m_routing->positionOf(expr.name);
+    const int position = m_routing->positionOf(expr);
     const QList<int> vars = position < 0 ? QList<int>{} : varsOf(position);
     int result = Mdd::False;
     if (vars.isEmpty()) {

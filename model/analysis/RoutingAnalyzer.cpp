@@ -539,7 +539,7 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
         std::optional<int> column;
         int witness = Mdd::False;
         for (const cond::NameUse& use : cond::namesRead(*site.expr)) {
-            const int x = m_routing.positionOf(use.name);
+            const int x = m_routing.positionOf(use.name, use.position);
             if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x))
                 continue;
             const QString name = m_routing.index().at(x).item->name;

@@ -357,7 +357,7 @@ void Checker::checkUnknownCodes(const cond::Expr& expr, const Place& place) {
     using K = cond::Expr::Kind;
     if (expr.kind != K::Compare && expr.kind != K::In && expr.kind != K::Has)
         return;
-    const int position = m_routing.positionOf(expr.name);
+    const int position = m_routing.positionOf(expr);
     if (position < 0)
         return;
     const Item& item = *m_index.at(position).item;

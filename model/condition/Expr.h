@@ -57,6 +57,11 @@ struct Expr {
     QList<ExprPtr> children; // Or, And, Not
     int column = 0;          // 1-based column where this node starts in the source text
     int nameColumn = 0;      // 1-based column of `name` (atoms)
+    // Atoms: the position of the item read, when the tree was parsed for one
+    // instrument (CompiledRouting passes a resolver to parseCondition): -1 for
+    // no such item, kUnresolved when parsed without one (look the name up).
+    static constexpr int kUnresolved = -2;
+    int position = kUnresolved;
 
     // Structural equality, ignoring columns; names compare ignoring case.
     bool sameTree(const Expr& other) const;

@@ -18,7 +18,8 @@ using TK = Token::Kind;
 // function returns nullptr once m_error is set, so the caller just unwinds.
 class Parser {
 public:
-    explicit Parser(const QList<Token>& tokens) : m_tokens(tokens) {}
+    Parser(const QList<Token>& tokens, const std::function<int(const QString&)>& resolve)
+        : m_tokens(tokens), m_resolve(resolve) {}
 
     ParseResult run() {
         ParseResult result;
@@ -38,6 +39,7 @@ public:
 
 private:
     const QList<Token>& m_tokens;
+    const std::function<int(const QString&)>& m_resolve;
     qsizetype m_pos = 0;
     int m_depth = 0;
     std::optional<ParseError> m_error;
@@ -208,6 +210,8 @@ private:
         const Token& name = advance();
         node->name = name.text;
         node->nameColumn = name.column;
+        if (m_resolve)
+            node->position = m_resolve(node->name);
         if (peek().kind == TK::RParen) {
             advance();
             return node;
@@ -245,6 +249,8 @@ private:
         }
         node->name = name.text;
         node->nameColumn = name.column;
+        if (m_resolve)
+            node->position = m_resolve(node->name);
         return node;
     }
 
@@ -316,14 +322,14 @@ private:
 
 } // namespace
 
-ParseResult parseCondition(const QString& text) {
+ParseResult parseCondition(const QString& text, const std::function<int(const QString&)>& resolve) {
     LexResult lexed = lexCondition(text);
     if (lexed.error) {
         ParseResult result;
         result.error = lexed.error;
         return result;
     }
-    return Parser(lexed.tokens).run();
+    return Parser(lexed.tokens, resolve).run();
 }
 
 } // namespace rb::cond

@@ -2,6 +2,7 @@
 
 #include "Expr.h"
 
+#include <functional>
 #include <optional>
 
 namespace rb::cond {
@@ -19,6 +20,9 @@ struct ParseResult {
 
 // Parses the condition language of DESIGN.md. Never throws; bounded recursion
 // (deep nesting is an error, not a crash).
-ParseResult parseCondition(const QString& text);
+// With `resolve`, every atom's `position` is resolve(name), so that whoever
+// analyses the tree for that instrument need not look the name up again.
+ParseResult parseCondition(const QString& text,
+                           const std::function<int(const QString&)>& resolve = {});
 
 } // namespace rb::cond

@@ -128,7 +128,7 @@ private:
 
 void collectNames(const Expr& e, QList<NameUse>& out) {
     if (e.isAtom())
-        out.append({e.name, e.nameColumn});
+        out.append({e.name, e.nameColumn, e.position});
     for (const ExprPtr& child : e.children)
         collectNames(*child, out);
 }

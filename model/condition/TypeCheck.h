@@ -21,6 +21,7 @@ QList<ConditionProblem> typeCheck(const Expr& expr, const ItemIndex& index);
 struct NameUse {
     QString name;
     int column = 0;
+    int position = Expr::kUnresolved; // the atom's (Expr::position)
 };
 QList<NameUse> namesRead(const Expr& expr);
 

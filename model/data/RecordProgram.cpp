@@ -258,7 +258,7 @@ int RecordProgram::compile(const cond::Expr& expr, const CompiledRouting& routin
     m_literals.push_back(literal(expr.value));
     n.literal = int(m_literals.size()) - 1;
     if (!expr.name.isEmpty())
-        n.position = routing.positionOf(expr.name); // unknown: -1, never presented
+        n.position = routing.positionOf(expr); // unknown: -1, never presented
     std::vector<int> children;
     for (const cond::ExprPtr& child : expr.children)
         children.push_back(compile(*child, routing));

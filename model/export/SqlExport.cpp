@@ -178,7 +178,7 @@ public:
         default:
             break;
         }
-        const int p = r.positionOf(e.name);
+        const int p = r.positionOf(e);
         if (p < 0)
             return QStringLiteral("0");
         switch (e.kind) {

@@ -36,7 +36,10 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
 }
 
 cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
-    cond::ParseResult parsed = cond::parseCondition(text);
+    // Atoms come out resolved to positions: the analysis and the data check
+    // read them per use, and a name lookup per use was a tenth of a large check.
+    cond::ParseResult parsed =
+        cond::parseCondition(text, [this](const QString& name) { return positionOf(name); });
     if (!parsed.ok() || !cond::typeCheck(*parsed.expr, m_index).isEmpty())
         return nullptr;
     return parsed.expr;

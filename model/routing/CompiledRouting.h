@@ -36,6 +36,12 @@ public:
     const CompiledItem& item(int position) const { return m_items.at(position); }
     // Position of a name read by a condition (any case), or -1.
     int positionOf(const QString& name) const;
+    // The same for an atom (or a name use) of a tree: its resolved position
+    // when compileCondition parsed it, else the name looked up.
+    int positionOf(const QString& name, int resolved) const {
+        return resolved != cond::Expr::kUnresolved ? resolved : positionOf(name);
+    }
+    int positionOf(const cond::Expr& atom) const { return positionOf(atom.name, atom.position); }
     // True when a code is a missing code of the item at this position.
     bool isMissingCode(int position, qint64 code) const;
     // Codes (with missing codes) of the item at this position.

@@ -1,13 +1,18 @@
-// Tests of the name lookups every check and analysis relies on: NameTable and
-// ItemIndex. Names are equal ignoring case as DESIGN.md says; the expected
-// answers below follow from that rule and are worked out by hand.
+// Tests of the name lookups every check and analysis relies on: NameTable,
+// ItemIndex and the positions CompiledRouting resolves into its trees. Names are equal ignoring
+// case as DESIGN.md says; the expected answers below follow from that rule and are worked out by
+// hand.
 
+#include "condition/Parser.h"
 #include "instrument/Instrument.h"
 #include "instrument/NameTable.h"
+#include "routing/CompiledRouting.h"
+#include "storage/YamlFormat.h"
 
 #include <QRandomGenerator>
 #include <QTest>
 
+#include <functional>
 #include <map>
 
 using namespace Qt::StringLiterals;
@@ -21,6 +26,7 @@ private slots:
     void firstInsertWins();
     void growsAndKeepsEveryName();
     void itemIndexLookups();
+    void compiledAtomsCarryTheirPositions();
 };
 
 void TestInstrument::sameName_data() {
@@ -119,6 +125,50 @@ void TestInstrument::itemIndexLookups() {
     QCOMPARE(index.resolveTarget(u"end"_s), 4);
     QCOMPARE(index.resolveTarget(u"Home"_s), 0);
     QCOMPARE(index.resolveTarget(u"nowhere"_s), -1);
+}
+
+// Every atom of every compiled condition holds the position its name looks up
+// to (the analysis reads it instead of the name); a tree parsed without a
+// resolver holds none and falls back to the name.
+void TestInstrument::compiledAtomsCarryTheirPositions() {
+    // At least one atom per ask_if / routing condition of the file (10 and 5,
+    // counted in the YAML by hand, when_skipped conditions left out: they are
+    // not routing); module filters count once per item.
+    const QList<std::pair<const char*, int>> samples = {{"household-energy.yaml", 10},
+                                                        {"commuting.yaml", 5}};
+    for (const auto& [sample, conditions] : samples) {
+        LoadResult loaded =
+            loadYamlFile(QStringLiteral(ROUTEBOOK_SAMPLES_DIR "/") + QString::fromLatin1(sample));
+        QVERIFY(loaded.ok());
+        const CompiledRouting routing(*loaded.instrument);
+        int atoms = 0;
+        std::function<void(const cond::Expr&)> check = [&](const cond::Expr& e) {
+            if (e.isAtom()) {
+                ++atoms;
+                QVERIFY(e.position >= 0);
+                QCOMPARE(e.position, routing.positionOf(e.name));
+                QCOMPARE(routing.positionOf(e), e.position);
+            }
+            for (const cond::ExprPtr& child : e.children)
+                check(*child);
+        };
+        for (int p = 0; p < routing.itemCount(); ++p) {
+            for (const cond::ExprPtr& f : routing.item(p).filters)
+                check(*f);
+            for (const CompiledRouting::CompiledRule& r : routing.item(p).rules)
+                if (r.condition)
+                    check(*r.condition);
+        }
+        QVERIFY2(atoms >= conditions, sample);
+    }
+    const cond::ParseResult plain = cond::parseCondition(u"Has_Vehicle = 1"_s);
+    QVERIFY(plain.ok());
+    QCOMPARE(plain.expr->position, cond::Expr::kUnresolved);
+    const cond::ParseResult resolved = cond::parseCondition(
+        u"a = 1 or b = 2"_s, [](const QString& n) { return n == u"a"_s ? 7 : -1; });
+    QVERIFY(resolved.ok());
+    QCOMPARE(resolved.expr->children.at(0)->position, 7);
+    QCOMPARE(resolved.expr->children.at(1)->position, -1);
 }
 
 QTEST_GUILESS_MAIN(TestInstrument)
