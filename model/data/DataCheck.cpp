@@ -382,7 +382,8 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
         return outcome;
     };
 
-    // Several threads: a few blocks in flight, merged in file order as they come back.
+    // Worker threads (one or more): a few blocks in flight, merged in file order
+    // as they come back, with their analysis rows.
     WorkerPool pool(threads, makeChecker);
     // Two blocks per thread keep every core busy; at most about 64 MB of blocks
     // in flight keeps the peak memory bounded on machines with many cores.

@@ -36,8 +36,8 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
 }
 
 cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
-    // Atoms come out resolved to positions: the analysis and the data check
-    // read them per use, and a name lookup per use was a tenth of a large check.
+    // Atoms come out resolved to positions: the analysis, the checks and the
+    // data check read them per use instead of looking the name up each time.
     cond::ParseResult parsed =
         cond::parseCondition(text, [this](const QString& name) { return positionOf(name); });
     if (!parsed.ok() || !cond::typeCheck(*parsed.expr, m_index).isEmpty())
