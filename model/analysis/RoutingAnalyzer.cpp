@@ -6,6 +6,8 @@
 #include "condition/TypeCheck.h"
 #include "routing/Simulator.h"
 
+#include <QVarLengthArray>
+
 #include <algorithm>
 #include <set>
 
@@ -75,7 +77,7 @@ void RoutingAnalyzer::run() {
     m_filter.assign(n, Mdd::True);
     m_rules.assign(n, {});
     m_ruleCondition.assign(n, {});
-    m_feasible.assign(n, {});
+    m_feasible = Digraph();
     for (int i = 0; i < n; ++i) {
         const int r = pending[i], lr = loosePending[i];
         const int filter = filterNode(i);
@@ -90,7 +92,7 @@ void RoutingAnalyzer::run() {
         pending[i + 1] = mdd.orOp(pending[i + 1], passed);
         loosePending[i + 1] = mdd.orOp(loosePending[i + 1], mdd.diff(lr, filter));
         if (passed != Mdd::False)
-            m_feasible[i].push_back(i + 1);
+            m_feasible.addEdge(i + 1);
         int rest = shown, looseRest = looseShown;
         for (const CompiledRouting::CompiledRule& rule : m_routing.item(i).rules) {
             RuleSets sets;
@@ -105,7 +107,7 @@ void RoutingAnalyzer::run() {
                 looseRest = mdd.diff(looseRest, c);
                 const int t = rule.target;
                 if (sets.fired != Mdd::False)
-                    m_feasible[i].push_back(t);
+                    m_feasible.addEdge(t);
                 if (t > i) {
                     pending[t] = mdd.orOp(pending[t], mdd.andOp(sets.fired, gapEmpty(i, t)));
                     loosePending[t] = mdd.orOp(loosePending[t], looseFired);
@@ -117,8 +119,10 @@ void RoutingAnalyzer::run() {
         pending[i + 1] = mdd.orOp(pending[i + 1], rest);
         loosePending[i + 1] = mdd.orOp(loosePending[i + 1], looseRest);
         if (rest != Mdd::False)
-            m_feasible[i].push_back(i + 1);
+            m_feasible.addEdge(i + 1);
+        m_feasible.closeVertex();
     }
+    m_feasible.closeVertex(); // END
 }
 
 QList<int> RoutingAnalyzer::positionsOf(const std::vector<int>& vars) const {
@@ -277,45 +281,45 @@ void RoutingAnalyzer::preferShorterForms(Sop& sop, int on, const UniversePrinter
 
 void RoutingAnalyzer::findLoops() {
     const int n = m_routing.itemCount();
-    std::vector<std::vector<int>> adj(n + 1);
-    for (int i = 0; i < n; ++i)
-        adj[i] = m_feasible[i];
     m_inLoop.assign(n, false);
     m_loops.clear();
-    for (const std::vector<int>& component : stronglyConnectedComponents(adj)) {
+    for (std::vector<int>& component : stronglyConnectedComponents(m_feasible)) {
         const int v = component.front();
-        const bool cycle = component.size() > 1 ||
-                           (v < n && std::find(adj[v].begin(), adj[v].end(), v) != adj[v].end());
+        const std::span<const int> out = m_feasible.targets(v);
+        const bool cycle =
+            component.size() > 1 || (v < n && std::find(out.begin(), out.end(), v) != out.end());
         if (!cycle)
             continue;
-        m_loops.push_back(component);
         for (int p : component)
             if (p < n)
                 m_inLoop[p] = true;
+        m_loops.push_back(std::move(component));
     }
 }
 
 std::vector<bool> RoutingAnalyzer::structurallyReachable() const {
     const int n = m_routing.itemCount();
-    std::vector<std::vector<int>> adj(n + 1);
+    Digraph graph;
     for (int i = 0; i < n; ++i) {
         const CompiledRouting::CompiledItem& item = m_routing.item(i);
         if (!item.filters.isEmpty())
-            adj[i].push_back(i + 1);
+            graph.addEdge(i + 1);
         bool unconditional = false;
         for (const CompiledRouting::CompiledRule& rule : item.rules) {
             if (!rule.usable)
                 continue;
-            adj[i].push_back(rule.target);
+            graph.addEdge(rule.target);
             if (!rule.condition) {
                 unconditional = true;
                 break;
             }
         }
         if (!unconditional)
-            adj[i].push_back(i + 1);
+            graph.addEdge(i + 1);
+        graph.closeVertex();
     }
-    return n > 0 ? reachableFrom(adj, 0) : std::vector<bool>(1, true);
+    graph.closeVertex(); // END
+    return n > 0 ? reachableFrom(graph, 0) : std::vector<bool>(1, true);
 }
 
 Finding RoutingAnalyzer::makeFinding(const QString& check, Severity severity, int position,
@@ -491,10 +495,10 @@ std::optional<QString> RoutingAnalyzer::witnessPath(int set, int untilPosition) 
 void RoutingAnalyzer::addUnaskedReads(Findings& out) {
     Mdd& mdd = m_algebra.mdd();
     struct Site {
-        cond::ExprPtr expr;
-        int position;     // where it is evaluated
-        int evaluatedSet; // exact set of assignments on which it is evaluated
-        QString field;
+        const cond::Expr* expr; // owned by m_routing (a pointer: no reference count to touch)
+        int position;           // where it is evaluated
+        int evaluatedSet;       // exact set of assignments on which it is evaluated
+        int rule; // the rule's index, -1 for the ask_if (its field is made for a finding only)
         bool module;
         int limit; // reads of items at or after this position are forward references
     };
@@ -516,34 +520,28 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
     for (auto it = moduleFirst.constBegin(); it != moduleFirst.constEnd(); ++it) {
         const CompiledRouting::CompiledItem& first = m_routing.item(it.value());
         if (first.hasModuleFilter)
-            sites.append({first.filters.first(), it.value(), moduleSets.value(it.key()),
-                          u"ask_if"_s, true, it.value()});
+            sites.append({first.filters.first().get(), it.value(), moduleSets.value(it.key()), -1,
+                          true, it.value()});
     }
     for (int i = 0; i < m_routing.itemCount(); ++i) {
         const CompiledRouting::CompiledItem& compiled = m_routing.item(i);
-        const Item& item = *m_routing.index().at(i).item;
         if (compiled.filters.size() > (compiled.hasModuleFilter ? 1 : 0))
-            sites.append(
-                {compiled.filters.last(), i, itemFilterEvaluated(i), u"ask_if"_s, false, i});
-        for (int k = 0; k < item.routing.size(); ++k) {
-            const CompiledRouting::CompiledRule& rule = m_routing.item(i).rules.at(k);
+            sites.append({compiled.filters.last().get(), i, itemFilterEvaluated(i), -1, false, i});
+        for (int k = 0; k < compiled.rules.size(); ++k) {
+            const CompiledRouting::CompiledRule& rule = compiled.rules.at(k);
             if (rule.usable && rule.condition)
-                sites.append(
-                    {rule.condition, i, m_rules[i][k].evaluated, ruleField(k, true), false, i});
+                sites.append({rule.condition.get(), i, m_rules[i][k].evaluated, k, false, i});
         }
     }
     for (const Site& site : sites) {
         if (site.evaluatedSet == Mdd::False)
             continue;
-        QStringList empties;
+        QVarLengthArray<int, 4> empties; // positions of the read items that can be empty
         std::optional<int> column;
         int witness = Mdd::False;
         for (const cond::NameUse& use : cond::namesRead(*site.expr)) {
             const int x = m_routing.positionOf(use.name, use.position);
-            if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x))
-                continue;
-            const QString name = m_routing.index().at(x).item->name;
-            if (empties.contains(name))
+            if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x) || empties.contains(x))
                 continue;
             const int on = mdd.andOp(site.evaluatedSet, m_algebra.emptyOf(x));
             if (on == Mdd::False)
@@ -552,24 +550,27 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
                 column = use.column;
                 witness = on;
             }
-            empties.append(name);
+            empties.append(x);
         }
         if (empties.isEmpty())
             continue;
-        Finding f =
-            makeFinding(u"reads-unasked-item"_s, Severity::Warning, site.position, site.field);
+        QStringList names;
+        for (int x : empties)
+            names.append(m_routing.index().at(x).item->name);
+        Finding f = makeFinding(u"reads-unasked-item"_s, Severity::Warning, site.position,
+                                site.rule < 0 ? u"ask_if"_s : ruleField(site.rule, true));
         if (site.module) {
             f.item.clear();
         }
         f.column = column;
         m_readWitness.insert(f.id(), witness);
         const QString path = witnessPath(witness, site.position).value_or(QString());
-        f.message = u"the condition reads "_s + empties.first() +
+        f.message = u"the condition reads "_s + names.first() +
                     u", which is empty (not presented) on some paths that reach it, e.g. after "_s +
                     path;
         if (empties.size() > 1)
             f.message +=
-                u"; also reads "_s + empties.mid(1).join(u", "_s) + u", which can be empty there"_s;
+                u"; also reads "_s + names.mid(1).join(u", "_s) + u", which can be empty there"_s;
         out.append(f);
     }
 }
@@ -593,6 +594,9 @@ Findings RoutingAnalyzer::findings() {
 
 RoutingAnalysis RoutingAnalyzer::analysis() {
     RoutingAnalysis result;
+    // Reserved: growing the list would move every universe (and touch its
+    // strings) again at each doubling.
+    result.universes.reserve(m_routing.itemCount());
     for (int i = 0; i < m_routing.itemCount(); ++i)
         result.universes.append(universe(i));
     result.findings = findings();

@@ -3,6 +3,7 @@
 #include "ConditionAlgebra.h"
 #include "Minimiser.h"
 #include "RoutingAnalysis.h"
+#include "Scc.h"
 #include "UniversePrinter.h"
 
 #include <vector>
@@ -67,7 +68,7 @@ private:
     std::vector<int> m_reached, m_presented, m_loose, m_looseReached, m_filter;
     std::vector<std::vector<RuleSets>> m_rules;
     std::vector<std::vector<int>> m_ruleCondition; // per rule: its condition; false if unusable
-    std::vector<std::vector<int>> m_feasible;      // feasible edges (targets) per position
+    Digraph m_feasible; // feasible edges per position (and END, the last vertex)
     std::vector<std::vector<int>> m_loops;
     std::vector<bool> m_inLoop;
     std::vector<int> m_consistency;    // per position, -1 until asked for
