@@ -3,6 +3,8 @@
 #include "CellReading.h"
 #include "routing/Simulator.h"
 
+#include <algorithm>
+#include <charconv>
 #include <cmath>
 #include <cstring>
 
@@ -191,25 +193,47 @@ void RecordProgram::buildHot() {
     }
 }
 
+// What decodeNumber reads of an item (its frequency slots are relative), so
+// two items that agree on it have the same small table.
+bool RecordProgram::decodeAlike(const ItemProgram& a, const ItemProgram& b) {
+    auto same = [](const CodeTable::Entry& x, const CodeTable::Entry& y) {
+        return x.kind == y.kind && x.slot == y.slot;
+    };
+    const CodeTable &x = a.codes, &y = b.codes;
+    const bool codes =
+        x.low == y.low && x.sparse.size() == y.sparse.size() &&
+        std::equal(x.dense.begin(), x.dense.end(), y.dense.begin(), y.dense.end(), same) &&
+        std::all_of(x.sparse.keyValueBegin(), x.sparse.keyValueEnd(), [&](auto kv) {
+            const auto it = y.sparse.constFind(kv.first);
+            return it != y.sparse.constEnd() && same(kv.second, *it);
+        });
+    return codes && a.type == b.type && a.hasRange == b.hasRange &&
+           (!a.hasRange || (a.min == b.min && a.max == b.max));
+}
+
 // The table is filled by decodeNumber itself, so both ways agree by construction.
+// Most items of a large instrument decode alike (a few code lists, a few
+// ranges), so an item first looks for an earlier one whose table it can share:
+// building a table decodes a thousand cells.
 void RecordProgram::buildSmallTable(ItemProgram& t) {
     if (t.type != ItemType::Single && t.type != ItemType::Integer && t.type != ItemType::Decimal)
         return;
-    std::vector<Small> table(kSmallNumbers);
-    for (int v = 0; v < kSmallNumbers; ++v) {
-        const QByteArray text = QByteArray::number(v);
-        Cell cell;
-        decodeNumber(t, text, cell);
-        table[size_t(v)] = {cell.presentedClass, cell.skipIsLegitimate,
-                            cell.slot >= 0 ? cell.slot - t.frequencyBase : -1};
-    }
-    for (const auto& shared : m_smallTables)
-        if (*shared == table) {
-            t.small = shared->data();
+    for (const SmallTable& shared : m_smallTables)
+        if (decodeAlike(*shared.owner, t)) {
+            t.small = shared.entries->data();
             return;
         }
-    m_smallTables.push_back(std::make_unique<std::vector<Small>>(std::move(table)));
-    t.small = m_smallTables.back()->data();
+    auto table = std::make_unique<std::vector<Small>>(kSmallNumbers);
+    char digits[4];
+    for (int v = 0; v < kSmallNumbers; ++v) {
+        const auto end = std::to_chars(digits, digits + sizeof digits, v).ptr;
+        Cell cell;
+        decodeNumber(t, QByteArrayView(digits, end - digits), cell);
+        (*table)[size_t(v)] = {cell.presentedClass, cell.skipIsLegitimate,
+                               cell.slot >= 0 ? cell.slot - t.frequencyBase : -1};
+    }
+    t.small = table->data();
+    m_smallTables.push_back({&t, std::move(table)});
 }
 
 // Cells of 1 to 3 digits by table; false for anything else.

@@ -128,7 +128,6 @@ private:
         CellClass presentedClass = CellClass::Invalid;
         bool skipIsLegitimate = false;
         int slot = -1; // frequency slot (from the item's first) when the number is a code
-        bool operator==(const Small&) const = default;
     };
     struct ItemProgram {
         ItemType type = ItemType::Statement;
@@ -177,6 +176,7 @@ private:
                      Scratch& s) const;
     bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
     void buildSmallTable(ItemProgram& t);
+    static bool decodeAlike(const ItemProgram& a, const ItemProgram& b);
     [[gnu::always_inline]] inline bool decodeSmall(const struct Hot& t, QByteArrayView v,
                                                    Cell& out) const;
     [[gnu::always_inline]] static void countCodes(const Cell& cell, const Scratch& s,
@@ -247,7 +247,11 @@ private:
     std::vector<Literal> m_literals;
     std::vector<int> m_children;
     std::vector<Element> m_elements;
-    std::vector<std::unique_ptr<std::vector<Small>>> m_smallTables;
+    struct SmallTable {
+        const ItemProgram* owner; // in m_items (sized before any table is built)
+        std::unique_ptr<std::vector<Small>> entries;
+    };
+    std::vector<SmallTable> m_smallTables;
     QByteArray m_skipCode;
     bool m_skipCodeIsDigits = false; // then a small cell may be the skip code itself
     std::vector<int> m_impliedItems; // positions with when_skipped
