@@ -310,6 +310,8 @@ void RecordProgram::prepare(Scratch& s) const {
     s.classes.assign(count, CellClass::Answered);
     s.seen.assign(count, 0);
     s.path.reserve(count * 4);
+    s.ownCounters.assign(size_t(m_variables) * kCounters, 0);
+    s.ownFrequencies.assign(size_t(m_frequencySlots), 0);
 }
 
 bool RecordProgram::isSkipValue(const ItemProgram& t, QByteArrayView cell) const {
@@ -650,42 +652,42 @@ void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch&
 // once, in order, so an item's class is final when the route passes it (its
 // gates are earlier items). Cells are decoded only when presented, or when a
 // skipped cell is not blank; implied values wait for the route's final values.
+// What this loop keeps per cell is kept small on purpose (measured: each store
+// and each value held across the loop costs time at 135 million cells): `live`
+// doubles as the presented flags until the end, the zero flags are cleared once
+// per record, the counters always exist (the scratch's when there is no tally)
+// and the path is left for toClassification to read off the flags.
 void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
                                     const Tally* tally) const {
-    // The scratch arrays through local pointers and the flags in locals: the
-    // byte arrays' stores may alias anything, so through `s` every store would
-    // make the compiler load every array's address again.
+    // The scratch arrays through local pointers: the byte arrays' stores may
+    // alias anything, so through `s` every store would make the compiler load
+    // every array's address again.
     const int count = itemCount();
     uint8_t* const live = s.live.data();
-    uint8_t* const presented = s.presented.data();
     uint8_t* const unknownSkip = s.unknownSkip.data();
-    uint8_t* const implied = s.implied.data();
     CellClass* const classes = s.classes.data();
     Cell* const cells = s.cells.data();
     const Hot* const hot = m_hot.data();
     const QByteArrayView* const field = fields.data();
-    qint64* const allCounters = tally ? tally->counters : nullptr;
-    qint64* const frequencies = tally ? tally->frequencies : nullptr;
-    if (s.path.size() < size_t(count))
-        s.path.resize(size_t(count)); // one pass visits each position at most once
-    int* const path = s.path.data();
-    int pathLength = 0;
-    std::fill(live, live + count, 0);
+    qint64* const allCounters = tally ? tally->counters : s.ownCounters.data();
+    qint64* const frequencies = tally ? tally->frequencies : s.ownFrequencies.data();
+    std::memset(live, 0, size_t(count)); // a condition may read a later item: not presented yet
+    std::memset(unknownSkip, 0, size_t(count));
+    std::memset(s.implied.data(), 0, size_t(count));
     // The classes met, one bit each: one register instead of a flag per question.
     unsigned seen = 0;
     int next = 0;
     for (int p = 0; p < count; ++p) {
         const Hot& t = hot[p];
-        const int counterOffset = t.counterOffset;
-        qint64* const counters =
-            allCounters && counterOffset >= 0 ? allCounters + counterOffset : nullptr;
+        const QByteArrayView v = t.column >= 0 ? field[t.column] : QByteArrayView();
         if (p >= next && filtersHold(t, live, cells, s)) { // presented
-            Cell& cell = cells[p];
-            decode(size_t(p), fields, cell, s);
             live[p] = 1;
-            presented[p] = 1;
-            path[pathLength++] = p;
             next = p + 1;
+            Cell& cell = cells[p];
+            // A small number sets every field that a number's readers use; the
+            // text and the codes are read only in the states that set them.
+            if (!decodeSmall(t, v, cell))
+                decode(size_t(p), fields, cell, s);
             for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
                 const Rule& rule = m_rules[size_t(r)];
                 if (rule.condition < 0 || test(rule.condition, s)) {
@@ -693,26 +695,20 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
                     break;
                 }
             }
-            if (counterOffset < 0)
-                continue;
+            if (t.counterOffset < 0)
+                continue; // a statement: no variable
             const CellClass c = cell.presentedClass;
             classes[p] = c;
-            unknownSkip[p] = 0;
-            implied[p] = 0;
             seen |= 1u << int(c);
-            if (counters) {
-                ++counters[int(c)];
-                countCodes(cell, s, frequencies);
-            }
+            ++allCounters[t.counterOffset + int(c)];
+            countCodes(cell, s, frequencies);
             continue;
         }
-        presented[p] = 0; // filtered or jumped over
-        if (counterOffset < 0)
+        if (t.counterOffset < 0) // filtered or jumped over
             continue;
-        implied[p] = 0;
-        unknownSkip[p] = 0;
+        qint64* const counters = allCounters + t.counterOffset;
         bool legitimate = true;
-        if (t.type == ItemType::Multi || (t.column >= 0 && !field[t.column].isEmpty())) {
+        if (t.type == ItemType::Multi || !v.isEmpty()) {
             Cell cell;
             decode(size_t(p), fields, cell, s);
             legitimate = cell.skipIsLegitimate;
@@ -720,24 +716,20 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
         if (!legitimate) {
             classes[p] = CellClass::RoutingViolation;
             seen |= 1u << int(CellClass::RoutingViolation);
-            if (counters)
-                ++counters[int(CellClass::RoutingViolation)];
+            ++counters[int(CellClass::RoutingViolation)];
             continue;
         }
         classes[p] = CellClass::LegitimateSkip;
+        unsigned unknown = 0; // a gate that is nonresponse, or itself skipped after one
         for (int k = t.gatesFrom; k < t.gatesTo; ++k) {
             const int g = m_gates[size_t(k)];
-            if (presented[g] ? isNonresponse(classes[g]) : bool(unknownSkip[g])) {
-                unknownSkip[p] = 1;
-                break;
-            }
+            unknown |= live[g] ? unsigned(isNonresponse(classes[g])) : unsigned(unknownSkip[g]);
         }
-        if (counters) {
-            ++counters[int(CellClass::LegitimateSkip)];
-            counters[SkipAfterMissingGate] += unknownSkip[p];
-        }
+        unknownSkip[p] = uint8_t(unknown);
+        ++counters[int(CellClass::LegitimateSkip)];
+        counters[SkipAfterMissingGate] += unknown;
     }
-    s.path.resize(size_t(pathLength));
+    std::memcpy(s.presented.data(), live, size_t(count));
     s.loop = false;
     constexpr unsigned presentedClasses = (1u << int(CellClass::LegitimateSkip)) - 1;
     const bool anyValue = seen & presentedClasses & ~(1u << int(CellClass::Blank));
@@ -747,17 +739,15 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
     for (int p : m_impliedItems) { // over the route's final values
         if (classes[p] == CellClass::LegitimateSkip &&
             (m_items[size_t(p)].impliedIf < 0 || evaluate(m_items[size_t(p)].impliedIf, s))) {
-            implied[p] = 1;
-            if (allCounters)
-                ++allCounters[hot[p].counterOffset + Implied];
+            s.implied[size_t(p)] = 1;
+            ++allCounters[hot[p].counterOffset + Implied];
         }
     }
     // The run of blank presented variables that ends the route, found from the
     // end (the loop above would track it at every cell).
     int runStart = -1, runLength = 0;
-    for (int k = pathLength - 1; k >= 0; --k) {
-        const int p = path[k];
-        if (hot[p].counterOffset < 0)
+    for (int p = count - 1; p >= 0; --p) {
+        if (!live[p] || hot[p].counterOffset < 0)
             continue;
         if (classes[p] != CellClass::Blank)
             break;
@@ -765,13 +755,19 @@ void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, S
         ++runLength;
     }
     s.breakOffStart = runLength >= 2 ? runStart : -1;
-    if (allCounters && s.breakOffStart >= 0 && anyValue)
+    if (s.breakOffStart >= 0 && anyValue)
         ++allCounters[hot[runStart].counterOffset + BreakOffStarts];
 }
 
 RecordClassification RecordProgram::toClassification(const Scratch& s) const {
     RecordClassification r;
-    r.path = QList<int>(s.path.begin(), s.path.end());
+    if (m_forwardOnly) { // the one pass leaves the path in the presented flags
+        for (size_t p = 0; p < m_items.size(); ++p)
+            if (s.presented[p])
+                r.path.append(int(p));
+    } else {
+        r.path = QList<int>(s.path.begin(), s.path.end());
+    }
     r.loop = s.loop;
     r.classes = s.classes;
     r.presented.assign(s.presented.begin(), s.presented.end());

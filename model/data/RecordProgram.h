@@ -29,7 +29,7 @@ public:
     // first-level cache; the enums are 8-bit fields.
     struct Cell {
         double number = 0;
-        QByteArrayView text;
+        QByteArrayView text;               // read only in state Text (a small number leaves it)
         int codesFrom = 0, codesCount = 0; // multi: counted codes in Scratch::codes
         int slot =
             -1; // a number that is a listed code: its frequency slot (the code is the number)
@@ -45,8 +45,9 @@ public:
         std::vector<uint8_t> live;  // the route's current value is the cell (else not presented)
         std::vector<uint8_t> presented, unknownSkip, implied;
         std::vector<CellClass> classes;
-        std::vector<int> path;
+        std::vector<int> path; // the route (toClassification reads it off `presented` when forward)
         std::vector<uint32_t> seen;
+        std::vector<qint64> ownCounters, ownFrequencies; // counted into when there is no tally
         uint32_t stamp = 0;
         bool loop = false, anyValue = false, anyViolation = false, anyInvalid = false;
         int breakOffStart = -1;
