@@ -159,7 +159,7 @@ CellReading CellInterpreter::readSingleColumn(const ItemTable& t, QByteArrayView
 }
 
 CellReading CellInterpreter::readMulti(int position, const ItemTable& t,
-                                       const std::vector<QByteArrayView>& fields) const {
+                                       RecordFields fields) const {
     CellReading r;
     bool invalid = false, anyValue = false;
     const std::vector<int>& columns = m_mapping.multiColumns[size_t(position)];
@@ -194,7 +194,7 @@ CellReading CellInterpreter::readMulti(int position, const ItemTable& t,
     return r;
 }
 
-CellReading CellInterpreter::read(int position, const std::vector<QByteArrayView>& fields) const {
+CellReading CellInterpreter::read(int position, RecordFields fields) const {
     const ItemTable& t = m_items[size_t(position)];
     if (t.type == ItemType::Statement) {
         CellReading r;

@@ -51,7 +51,7 @@ class CellInterpreter {
 public:
     CellInterpreter(const CompiledRouting& routing, const HeaderMapping& mapping);
 
-    CellReading read(int position, const std::vector<QByteArrayView>& fields) const;
+    CellReading read(int position, RecordFields fields) const;
     bool hasVariable(int position) const {
         return m_items[size_t(position)].type != ItemType::Statement;
     }
@@ -68,7 +68,7 @@ private:
     };
     CellReading readSingleColumn(const ItemTable& t, QByteArrayView cell) const;
     CellReading readMulti(int position, const ItemTable& t,
-                          const std::vector<QByteArrayView>& fields) const;
+                          RecordFields fields) const;
     bool isLegitimateSkipValue(const ItemTable& t, QByteArrayView cell) const;
 
     const HeaderMapping& m_mapping;

@@ -53,7 +53,7 @@ void ChunkChecker::run(const char* begin, const char* end, bool truncated, Chunk
     CsvRange::Status status;
     while ((status = range.next()) == CsvRange::Status::Record) {
         ++record;
-        const std::vector<QByteArrayView>& fields = range.fields();
+        RecordFields fields = range.fields();
         if (qsizetype(fields.size()) != m_mapping.columnCount) {
             tally.error =
                 ChunkTally::Error{range.recordLine(), 1, {}, record, qint64(fields.size())};
@@ -73,7 +73,7 @@ void ChunkChecker::run(const char* begin, const char* end, bool truncated, Chunk
 }
 
 void ChunkChecker::note(ChunkTally::Problems& problems, qint64 record,
-                        const std::vector<QByteArrayView>& fields) const {
+                        RecordFields fields) const {
     if (qsizetype(problems.firstRecords.size() + size_t(problems.firstIds.size())) <
         m_options.firstRecordsKept) {
         if (m_mapping.idColumn >= 0)
@@ -84,7 +84,7 @@ void ChunkChecker::note(ChunkTally::Problems& problems, qint64 record,
     ++problems.count;
 }
 
-void ChunkChecker::count(qint64 record, qint64 line, const std::vector<QByteArrayView>& fields,
+void ChunkChecker::count(qint64 record, qint64 line, RecordFields fields,
                          ChunkTally& tally) const {
     const RecordProgram::Scratch& s = m_scratch;
     if (s.anyInvalid) // the first few invalid cells, for the messages
@@ -114,7 +114,7 @@ void ChunkChecker::count(qint64 record, qint64 line, const std::vector<QByteArra
 
 // The record as it came, with legitimate skips coded (the skip code, or the
 // implied value where it holds), then the flags; no allocation per cell.
-void ChunkChecker::writeRow(const std::vector<QByteArrayView>& fields, QByteArray& out) {
+void ChunkChecker::writeRow(RecordFields fields, QByteArray& out) {
     const RecordProgram::Scratch& s = m_scratch;
     auto override = [&](int column, const QByteArray& value) {
         if (column < 0)

@@ -62,11 +62,11 @@ public:
     void run(const char* begin, const char* end, bool truncated, ChunkTally& tally);
 
 private:
-    void count(qint64 record, qint64 line, const std::vector<QByteArrayView>& fields,
+    void count(qint64 record, qint64 line, RecordFields fields,
                ChunkTally& tally) const;
     void note(ChunkTally::Problems& problems, qint64 record,
-              const std::vector<QByteArrayView>& fields) const;
-    void writeRow(const std::vector<QByteArrayView>& fields, QByteArray& out);
+              RecordFields fields) const;
+    void writeRow(RecordFields fields, QByteArray& out);
 
     const CompiledRouting& m_routing;
     const RecordProgram& m_program;

@@ -52,7 +52,15 @@ bool CsvRange::nextPlain() {
         return unsigned(_mm_movemask_epi8(_mm_cmpeq_epi8(low, c))) |
                (unsigned(_mm_movemask_epi8(_mm_cmpeq_epi8(high, c))) << 16);
     };
+    // Fields go straight into the storage, which always has room for the 33
+    // fields a 32-byte chunk can end (no capacity check per field).
+    QByteArrayView* out = m_fields.data();
+    std::size_t count = 0;
     for (const char* i = start; m_end - i >= 32 && i - start <= m_maxRecordBytes; i += 32) {
+        if (m_fields.size() - count < 33) {
+            m_fields.resize(2 * m_fields.size() + 64);
+            out = m_fields.data();
+        }
         const __m128i low = _mm_loadu_si128(reinterpret_cast<const __m128i*>(i));
         const __m128i high = _mm_loadu_si128(reinterpret_cast<const __m128i*>(i + 16));
         const unsigned ends = mask(low, high, lineFeed);
@@ -61,7 +69,7 @@ bool CsvRange::nextPlain() {
             break;
         for (unsigned commas = mask(low, high, comma) & upTo; commas; commas &= commas - 1) {
             const char* at = i + __builtin_ctz(commas);
-            m_fields.emplace_back(from, at - from);
+            out[count++] = QByteArrayView(from, at - from);
             from = at + 1;
         }
         if (!ends)
@@ -69,14 +77,20 @@ bool CsvRange::nextPlain() {
         const char* at = i + __builtin_ctz(ends);
         if (at + 1 - start > m_maxRecordBytes)
             break;
-        m_fields.emplace_back(from, at - from);
+        out[count++] = QByteArrayView(from, at - from);
+        m_count = count;
         m_recordLine = m_line++;
         m_pos = at + 1;
         return true;
     }
-    m_fields.clear();
 #endif
     return false;
+}
+
+void CsvRange::addField(QByteArrayView field) {
+    if (m_count == m_fields.size())
+        m_fields.resize(2 * m_fields.size() + 64);
+    m_fields[m_count++] = field;
 }
 
 CsvRange::Status CsvRange::next() {
@@ -84,7 +98,7 @@ CsvRange::Status CsvRange::next() {
         return Status::Error;
     if (m_pos == m_end)
         return Status::End;
-    m_fields.clear();
+    m_count = 0;
     if (nextPlain())
         return Status::Record;
     const char* const start = m_pos;
@@ -128,10 +142,10 @@ CsvRange::Status CsvRange::next() {
                 }
                 if (escaped) {
                     m_scratch.append(from, at - from);
-                    m_scratchFields.push_back({qsizetype(m_fields.size()), scratchFrom});
-                    m_fields.emplace_back(from, m_scratch.size() - scratchFrom);
+                    m_scratchFields.push_back({qsizetype(m_count), scratchFrom});
+                    addField(QByteArrayView(from, m_scratch.size() - scratchFrom));
                 } else {
-                    m_fields.emplace_back(from, at - from);
+                    addField(QByteArrayView(from, at - from));
                 }
                 break;
             }
@@ -143,7 +157,7 @@ CsvRange::Status CsvRange::next() {
                 return fail(line, lineStart, i,
                             QStringLiteral("quote inside an unquoted field (quote the whole "
                                            "field and double the quote)"));
-            m_fields.emplace_back(from, i - from);
+            addField(QByteArrayView(from, i - from));
         }
         const char* recordEnd = nullptr;
         qint64 nextLine = line;

@@ -1,5 +1,7 @@
 #pragma once
 
+#include "RecordFields.h"
+
 #include <QByteArray>
 #include <QByteArrayView>
 #include <QString>
@@ -29,7 +31,7 @@ public:
     CsvRange(const char* begin, const char* end, qint64 maxRecordBytes);
 
     Status next();
-    const std::vector<QByteArrayView>& fields() const { return m_fields; }
+    RecordFields fields() const { return {m_fields.data(), m_count}; }
     qint64 recordLine() const { return m_recordLine; } // 0-based, first line of the record
     qint64 linesDone() const { return m_line; }        // line ends consumed so far
     const Error& error() const { return m_error; }
@@ -39,6 +41,7 @@ public:
 
 private:
     bool nextPlain();
+    void addField(QByteArrayView field);
     Status fail(qint64 line, const char* lineStart, const char* at, const QString& message);
 
     const char* m_begin;
@@ -47,7 +50,8 @@ private:
     qint64 m_maxRecordBytes;
     qint64 m_line = 0;
     qint64 m_recordLine = 0;
-    std::vector<QByteArrayView> m_fields;
+    std::vector<QByteArrayView> m_fields; // storage: the record's fields are the first m_count
+    std::size_t m_count = 0;
     std::vector<std::pair<qsizetype, qsizetype>> m_scratchFields; // field, offset in m_scratch
     QByteArray m_scratch;
     Error m_error;

@@ -11,7 +11,7 @@ Diagnostic headerError(const QString& fileName, int column, const QString& messa
 } // namespace
 
 HeaderMappingResult mapHeader(const CompiledRouting& routing,
-                              const std::vector<QByteArrayView>& header, const QString& fileName,
+                              RecordFields header, const QString& fileName,
                               const QString& idColumn) {
     HeaderMappingResult result;
     HeaderMapping& m = result.mapping;

@@ -1,5 +1,7 @@
 #pragma once
 
+#include "RecordFields.h"
+
 #include "routing/CompiledRouting.h"
 #include "util/Diagnostic.h"
 
@@ -33,7 +35,7 @@ struct HeaderMappingResult {
     std::optional<Diagnostic> error;
 };
 HeaderMappingResult mapHeader(const CompiledRouting& routing,
-                              const std::vector<QByteArrayView>& header, const QString& fileName,
+                              RecordFields header, const QString& fileName,
                               const QString& idColumn);
 
 } // namespace rb

@@ -64,7 +64,7 @@ RecordChecker::RecordChecker(const CompiledRouting& routing, const HeaderMapping
     }
 }
 
-RecordClassification RecordChecker::classify(const std::vector<QByteArrayView>& fields) const {
+RecordClassification RecordChecker::classify(RecordFields fields) const {
     const int count = m_routing.itemCount();
     std::vector<CellReading> readings{size_t(count)};
     for (int p = 0; p < count; ++p)

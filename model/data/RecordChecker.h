@@ -14,7 +14,7 @@ class RecordChecker {
 public:
     RecordChecker(const CompiledRouting& routing, const HeaderMapping& mapping);
 
-    RecordClassification classify(const std::vector<QByteArrayView>& fields) const;
+    RecordClassification classify(RecordFields fields) const;
 
 private:
     struct ItemPlan {

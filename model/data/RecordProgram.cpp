@@ -352,7 +352,7 @@ void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell
     out.presentedClass = ok ? CellClass::Answered : CellClass::Invalid;
 }
 
-void RecordProgram::decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields,
+void RecordProgram::decodeMulti(const ItemProgram& t, RecordFields fields,
                                 Cell& out, Scratch& s) const {
     bool invalid = false, anyValue = false, anyAnswer = false;
     out.codesFrom = int(s.codes.size());
@@ -389,7 +389,7 @@ void RecordProgram::decodeMulti(const ItemProgram& t, const std::vector<QByteArr
         out.presentedClass = classOfMissing(t.codes.find(s.codes[size_t(out.codesFrom)])->kind);
 }
 
-void RecordProgram::decode(size_t p, const std::vector<QByteArrayView>& fields, Cell& cell,
+void RecordProgram::decode(size_t p, RecordFields fields, Cell& cell,
                            Scratch& s) const {
     const Hot& h = m_hot[p];
     cell = Cell{};
@@ -632,7 +632,7 @@ void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
         ++tally->counters[m_hot[size_t(runStart)].counterOffset + BreakOffStarts];
 }
 
-void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch& s,
+void RecordProgram::classify(RecordFields fields, Scratch& s,
                              const Tally* tally) const {
     s.codes.clear();
     s.codeSlots.clear();
@@ -657,7 +657,7 @@ void RecordProgram::classify(const std::vector<QByteArrayView>& fields, Scratch&
 // doubles as the presented flags until the end, the zero flags are cleared once
 // per record, the counters always exist (the scratch's when there is no tally)
 // and the path is left for toClassification to read off the flags.
-void RecordProgram::classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
+void RecordProgram::classifyForward(RecordFields fields, Scratch& s,
                                     const Tally* tally) const {
     // The scratch arrays through local pointers: the byte arrays' stores may
     // alias anything, so through `s` every store would make the compiler load

@@ -70,7 +70,7 @@ public:
 
     void prepare(Scratch& s) const;
     // Classifies one record; with a tally, also counts it there (in the same pass).
-    void classify(const std::vector<QByteArrayView>& fields, Scratch& s,
+    void classify(RecordFields fields, Scratch& s,
                   const Tally* tally = nullptr) const;
     RecordClassification toClassification(const Scratch& s) const; // for tests
 
@@ -170,10 +170,10 @@ private:
     int compile(const cond::Expr& expr, const CompiledRouting& routing);
     static Literal literal(const cond::Value& v);
     [[gnu::always_inline]] inline void decode(size_t position,
-                                              const std::vector<QByteArrayView>& fields, Cell& cell,
+                                              RecordFields fields, Cell& cell,
                                               Scratch& s) const;
     void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out) const;
-    void decodeMulti(const ItemProgram& t, const std::vector<QByteArrayView>& fields, Cell& out,
+    void decodeMulti(const ItemProgram& t, RecordFields fields, Cell& out,
                      Scratch& s) const;
     bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
     void buildSmallTable(ItemProgram& t);
@@ -202,7 +202,7 @@ private:
         return true;
     }
     void route(Scratch& s) const;
-    void classifyForward(const std::vector<QByteArrayView>& fields, Scratch& s,
+    void classifyForward(RecordFields fields, Scratch& s,
                          const Tally* tally) const;
     void classifyCells(Scratch& s, const Tally* tally) const;
     void findBreakOff(Scratch& s, const Tally* tally) const;
