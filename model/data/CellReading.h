@@ -67,8 +67,7 @@ private:
         double min = 0, max = 0;
     };
     CellReading readSingleColumn(const ItemTable& t, QByteArrayView cell) const;
-    CellReading readMulti(int position, const ItemTable& t,
-                          RecordFields fields) const;
+    CellReading readMulti(int position, const ItemTable& t, RecordFields fields) const;
     bool isLegitimateSkipValue(const ItemTable& t, QByteArrayView cell) const;
 
     const HeaderMapping& m_mapping;

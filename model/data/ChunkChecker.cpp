@@ -72,8 +72,7 @@ void ChunkChecker::run(const char* begin, const char* end, bool truncated, Chunk
     tally.lines = range.linesDone();
 }
 
-void ChunkChecker::note(ChunkTally::Problems& problems, qint64 record,
-                        RecordFields fields) const {
+void ChunkChecker::note(ChunkTally::Problems& problems, qint64 record, RecordFields fields) const {
     if (qsizetype(problems.firstRecords.size() + size_t(problems.firstIds.size())) <
         m_options.firstRecordsKept) {
         if (m_mapping.idColumn >= 0)
@@ -84,8 +83,7 @@ void ChunkChecker::note(ChunkTally::Problems& problems, qint64 record,
     ++problems.count;
 }
 
-void ChunkChecker::count(qint64 record, qint64 line, RecordFields fields,
-                         ChunkTally& tally) const {
+void ChunkChecker::count(qint64 record, qint64 line, RecordFields fields, ChunkTally& tally) const {
     const RecordProgram::Scratch& s = m_scratch;
     if (s.anyInvalid) // the first few invalid cells, for the messages
         for (int p = 0; p < m_program.itemCount() &&

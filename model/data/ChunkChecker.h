@@ -62,10 +62,8 @@ public:
     void run(const char* begin, const char* end, bool truncated, ChunkTally& tally);
 
 private:
-    void count(qint64 record, qint64 line, RecordFields fields,
-               ChunkTally& tally) const;
-    void note(ChunkTally::Problems& problems, qint64 record,
-              RecordFields fields) const;
+    void count(qint64 record, qint64 line, RecordFields fields, ChunkTally& tally) const;
+    void note(ChunkTally::Problems& problems, qint64 record, RecordFields fields) const;
     void writeRow(RecordFields fields, QByteArray& out);
 
     const CompiledRouting& m_routing;

@@ -10,9 +10,8 @@ Diagnostic headerError(const QString& fileName, int column, const QString& messa
 }
 } // namespace
 
-HeaderMappingResult mapHeader(const CompiledRouting& routing,
-                              RecordFields header, const QString& fileName,
-                              const QString& idColumn) {
+HeaderMappingResult mapHeader(const CompiledRouting& routing, RecordFields header,
+                              const QString& fileName, const QString& idColumn) {
     HeaderMappingResult result;
     HeaderMapping& m = result.mapping;
     m.columnCount = int(header.size());

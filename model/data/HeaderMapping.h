@@ -34,8 +34,7 @@ struct HeaderMappingResult {
     HeaderMapping mapping;
     std::optional<Diagnostic> error;
 };
-HeaderMappingResult mapHeader(const CompiledRouting& routing,
-                              RecordFields header, const QString& fileName,
-                              const QString& idColumn);
+HeaderMappingResult mapHeader(const CompiledRouting& routing, RecordFields header,
+                              const QString& fileName, const QString& idColumn);
 
 } // namespace rb

@@ -352,8 +352,8 @@ void RecordProgram::decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell
     out.presentedClass = ok ? CellClass::Answered : CellClass::Invalid;
 }
 
-void RecordProgram::decodeMulti(const ItemProgram& t, RecordFields fields,
-                                Cell& out, Scratch& s) const {
+void RecordProgram::decodeMulti(const ItemProgram& t, RecordFields fields, Cell& out,
+                                Scratch& s) const {
     bool invalid = false, anyValue = false, anyAnswer = false;
     out.codesFrom = int(s.codes.size());
     for (size_t k = 0; k < t.multiColumns.size(); ++k) {
@@ -389,8 +389,7 @@ void RecordProgram::decodeMulti(const ItemProgram& t, RecordFields fields,
         out.presentedClass = classOfMissing(t.codes.find(s.codes[size_t(out.codesFrom)])->kind);
 }
 
-void RecordProgram::decode(size_t p, RecordFields fields, Cell& cell,
-                           Scratch& s) const {
+void RecordProgram::decode(size_t p, RecordFields fields, Cell& cell, Scratch& s) const {
     const Hot& h = m_hot[p];
     cell = Cell{};
     switch (h.type) {
@@ -632,8 +631,7 @@ void RecordProgram::findBreakOff(Scratch& s, const Tally* tally) const {
         ++tally->counters[m_hot[size_t(runStart)].counterOffset + BreakOffStarts];
 }
 
-void RecordProgram::classify(RecordFields fields, Scratch& s,
-                             const Tally* tally) const {
+void RecordProgram::classify(RecordFields fields, Scratch& s, const Tally* tally) const {
     s.codes.clear();
     s.codeSlots.clear();
     if (m_forwardOnly) {
@@ -657,8 +655,7 @@ void RecordProgram::classify(RecordFields fields, Scratch& s,
 // doubles as the presented flags until the end, the zero flags are cleared once
 // per record, the counters always exist (the scratch's when there is no tally)
 // and the path is left for toClassification to read off the flags.
-void RecordProgram::classifyForward(RecordFields fields, Scratch& s,
-                                    const Tally* tally) const {
+void RecordProgram::classifyForward(RecordFields fields, Scratch& s, const Tally* tally) const {
     // The scratch arrays through local pointers: the byte arrays' stores may
     // alias anything, so through `s` every store would make the compiler load
     // every array's address again.

@@ -70,8 +70,7 @@ public:
 
     void prepare(Scratch& s) const;
     // Classifies one record; with a tally, also counts it there (in the same pass).
-    void classify(RecordFields fields, Scratch& s,
-                  const Tally* tally = nullptr) const;
+    void classify(RecordFields fields, Scratch& s, const Tally* tally = nullptr) const;
     RecordClassification toClassification(const Scratch& s) const; // for tests
 
     int itemCount() const { return int(m_items.size()); }
@@ -169,12 +168,10 @@ private:
 
     int compile(const cond::Expr& expr, const CompiledRouting& routing);
     static Literal literal(const cond::Value& v);
-    [[gnu::always_inline]] inline void decode(size_t position,
-                                              RecordFields fields, Cell& cell,
+    [[gnu::always_inline]] inline void decode(size_t position, RecordFields fields, Cell& cell,
                                               Scratch& s) const;
     void decodeNumber(const ItemProgram& t, QByteArrayView cell, Cell& out) const;
-    void decodeMulti(const ItemProgram& t, RecordFields fields, Cell& out,
-                     Scratch& s) const;
+    void decodeMulti(const ItemProgram& t, RecordFields fields, Cell& out, Scratch& s) const;
     bool isSkipValue(const ItemProgram& t, QByteArrayView cell) const;
     void buildSmallTable(ItemProgram& t);
     static bool decodeAlike(const ItemProgram& a, const ItemProgram& b);
@@ -202,8 +199,7 @@ private:
         return true;
     }
     void route(Scratch& s) const;
-    void classifyForward(RecordFields fields, Scratch& s,
-                         const Tally* tally) const;
+    void classifyForward(RecordFields fields, Scratch& s, const Tally* tally) const;
     void classifyCells(Scratch& s, const Tally* tally) const;
     void findBreakOff(Scratch& s, const Tally* tally) const;
     bool evaluate(int node, const Scratch& s) const;
