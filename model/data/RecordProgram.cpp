@@ -238,17 +238,18 @@ void RecordProgram::buildSmallTable(ItemProgram& t) {
 
 // Cells of 1 to 3 digits by table; false for anything else.
 bool RecordProgram::decodeSmall(const Hot& t, QByteArrayView v, Cell& out) const {
-    const qsizetype n = v.size();
-    if (!t.small || n == 0 || n > 3)
+    const size_t n = size_t(v.size());
+    if (!t.small || n - 1 > 2) // 1 to 3 digits (n == 0 wraps round)
         return false;
     // Without a branch on the length (1, 2 or 3 digits alternate in real data):
-    // the digits past the length read the first one again and are not used.
-    const unsigned d0 = unsigned(static_cast<unsigned char>(v[0])) - '0';
-    const unsigned d1 = unsigned(static_cast<unsigned char>(v[n > 1 ? 1 : 0])) - '0';
-    const unsigned d2 = unsigned(static_cast<unsigned char>(v[n > 2 ? 2 : 0])) - '0';
+    // the digits past the length read the first one again and weigh nothing.
+    static constexpr unsigned kWeight[4][3] = {{0, 0, 0}, {1, 0, 0}, {10, 1, 0}, {100, 10, 1}};
+    const auto* c = reinterpret_cast<const unsigned char*>(v.data());
+    const unsigned d0 = c[0] - unsigned('0'), d1 = c[n > 1] - unsigned('0'),
+                   d2 = c[size_t(n > 2) * 2] - unsigned('0');
     if ((d0 > 9) | (d1 > 9) | (d2 > 9))
         return false;
-    const int value = int(n == 1 ? d0 : (n == 2 ? d0 * 10 + d1 : d0 * 100 + d1 * 10 + d2));
+    const unsigned value = d0 * kWeight[n][0] + d1 * kWeight[n][1] + d2 * kWeight[n][2];
     if (m_skipCodeIsDigits && v == QByteArrayView(m_skipCode))
         return false;
     const Small& e = t.small[value];

@@ -22,7 +22,8 @@ QByteArray GeneratedResponses::csv() const {
 GeneratedResponses generateResponses(const CompiledRouting& routing, int records, quint32 seed) {
     GeneratedResponses g;
     QList<QList<QByteArray>> pools;
-    const QList<QByteArray> common = {"", "", "", "-1", "abc", "3.0", "1.5", "0", "-2", "1e2"};
+    const QList<QByteArray> common = {"",  "",   "",    "-1",  "abc", "3.0", "1.5",
+                                      "0", "-2", "1e2", "100", "250", "999", "007"};
     for (int p = 0; p < routing.itemCount(); ++p) {
         const Item& item = *routing.index().at(p).item;
         if (item.type == ItemType::Statement)

@@ -109,6 +109,7 @@ private slots:
     void blocksAndThreadsGiveTheSameResult();
     void rangeParserMatchesStreamingReader();
     void byteOrderMarkIsNotPartOfTheFirstField();
+    void threeDigitCellsByHand();
 };
 
 // Routing of garden.yaml: has_garden, then (if has_garden <> 1, i.e. 2, 8, 9 or
@@ -772,6 +773,44 @@ void TestDataCheck::byteOrderMarkIsNotPartOfTheFirstField() {
         QCOMPARE(outcome.error->line, 1);
         QCOMPARE(outcome.error->column, 6);
     }
+}
+
+// Cells of one to three digits are decoded by table (RecordProgram::decodeSmall);
+// here every digit of a three-digit cell decides a class, by hand: load has the
+// range 0..500 and the refused code 999; unit is asked when load >= 120 (DESIGN.md:
+// a missing code and an invalid value are compared as they stand).
+//   r1 119: load answered, unit skipped     r2 120: answered, unit presented (blank)
+//   r3 500: answered, unit presented (1)    r4 501: invalid, unit presented (blank)
+//   r5 999: refused, unit presented (blank) r6 007: answered (7), unit skipped
+//   r7 12:  answered, unit skipped          r8 210: answered, unit presented (1)
+void TestDataCheck::threeDigitCellsByHand() {
+    const QByteArray yaml = R"(routebook: 1
+instrument: {title: "Loads", version: "1", language: "en"}
+code_lists:
+  yes: [{code: 1, label: "Yes"}]
+modules:
+  - name: m
+    items:
+      - {name: load, text: "Load?", type: integer, range: [0, 500],
+         missing: [{code: 999, label: "Refused", missing: refused}]}
+      - {name: unit, text: "Unit?", type: single, codes: yes, ask_if: "load >= 120"}
+)";
+    LoadResult loaded = loadYamlText(yaml, u"loads.yaml"_s);
+    QVERIFY2(loaded.ok(), qPrintable(formatDiagnostics(loaded.errors)));
+    const DataCheckOutcome outcome =
+        check(*loaded.instrument, "load,unit\n119,\n120,\n500,1\n501,\n999,\n007,\n12,\n210,1\n");
+    QVERIFY2(outcome.result, qPrintable(outcome.error ? outcome.error->toString() : QString()));
+    const ItemCounts* load = item(*outcome.result, u"load"_s);
+    const ItemCounts* unit = item(*outcome.result, u"unit"_s);
+    QVERIFY(load && unit);
+    QCOMPARE(load->presented, 8);
+    QCOMPARE(load->answered, 6);
+    QCOMPARE(load->invalid, 1);
+    QCOMPARE(load->nonresponseByKind[2], 1); // refused
+    QCOMPARE(unit->presented, 5);
+    QCOMPARE(unit->answered, 2);
+    QCOMPARE(unit->nonresponseByKind[0], 3); // blank
+    QCOMPARE(unit->legitimateSkip, 3);
 }
 
 QTEST_GUILESS_MAIN(TestDataCheck)
