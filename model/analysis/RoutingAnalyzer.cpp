@@ -384,21 +384,26 @@ void RoutingAnalyzer::addRuleFindings(Findings& out) {
         if (m_presented[i] == Mdd::False)
             continue;
         const QList<CompiledRouting::CompiledRule>& rules = m_routing.item(i).rules;
-        const QList<Rule>& written = m_routing.index().at(i).item->routing;
+        // The rule as written, for a finding's message only: reading (and
+        // copying) every rule's text would touch every item of the instrument.
+        auto written = [&](int k) -> const Rule& {
+            return m_routing.index().at(i).item->routing.at(k);
+        };
+        auto describe = [&](int k) {
+            return u" (if "_s + *written(k).condition + u" go to "_s + written(k).target + u')';
+        };
         for (int k = 0; k < rules.size(); ++k) {
             const RuleSets& sets = m_rules[i][k];
             if (!sets.usable || sets.evaluated == Mdd::False)
                 continue;
             const bool hasIf = rules[k].condition != nullptr;
-            const QString text = hasIf ? *written[k].condition : QString();
-            const QString target = written[k].target;
             if (sets.fired == Mdd::False) {
                 Finding f =
                     makeFinding(u"rule-never-fires"_s, Severity::Warning, i, ruleField(k, true));
                 f.column = 1;
                 const bool alone = m_algebra.conditionAt(*rules[k].condition, i + 1) == Mdd::False;
-                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + u" (if "_s +
-                            text + u" go to "_s + target + u") never fires: "_s +
+                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + describe(k) +
+                            u" never fires: "_s +
                             (alone ? u"its condition can never hold"_s
                                    : u"its condition never holds when the rule is evaluated"_s);
                 out.append(f);
@@ -415,8 +420,8 @@ void RoutingAnalyzer::addRuleFindings(Findings& out) {
                 Finding f =
                     makeFinding(u"rule-always-fires"_s, Severity::Warning, i, ruleField(k, true));
                 f.column = 1;
-                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + u" (if "_s +
-                            text + u" go to "_s + target + u") fires whenever it is evaluated"_s +
+                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + describe(k) +
+                            u" fires whenever it is evaluated"_s +
                             (later ? u", so the rules after it are never evaluated"_s
                                    : u", so its condition is redundant"_s);
                 out.append(f);
@@ -539,19 +544,19 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
         QVarLengthArray<int, 4> empties; // positions of the read items that can be empty
         std::optional<int> column;
         int witness = Mdd::False;
-        for (const cond::NameUse& use : cond::namesRead(*site.expr)) {
-            const int x = m_routing.positionOf(use.name, use.position);
+        cond::forEachNameRead(*site.expr, [&](const cond::Expr& atom) {
+            const int x = m_routing.positionOf(atom);
             if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x) || empties.contains(x))
-                continue;
+                return;
             const int on = mdd.andOp(site.evaluatedSet, m_algebra.emptyOf(x));
             if (on == Mdd::False)
-                continue;
+                return;
             if (empties.isEmpty()) {
-                column = use.column;
+                column = atom.nameColumn;
                 witness = on;
             }
             empties.append(x);
-        }
+        });
         if (empties.isEmpty())
             continue;
         QStringList names;

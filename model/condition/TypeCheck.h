@@ -25,4 +25,13 @@ struct NameUse {
 };
 QList<NameUse> namesRead(const Expr& expr);
 
+// The same atoms handed to `visit` one by one, in the same order, copying
+// nothing (for walks over every condition of a large instrument).
+template <typename Visit> void forEachNameRead(const Expr& expr, Visit&& visit) {
+    if (expr.isAtom())
+        visit(expr);
+    for (const ExprPtr& child : expr.children)
+        forEachNameRead(*child, visit);
+}
+
 } // namespace rb::cond
