@@ -174,7 +174,7 @@ void RecordProgram::buildHot() {
         h.frequencyBase = t.frequencyBase;
         h.filtersFrom = int(m_filters.size());
         m_filters.insert(m_filters.end(), t.filters.begin(), t.filters.end());
-        h.filtersTo = int(m_filters.size());
+        h.filterCount = uint8_t(t.filters.size()); // the module's and the item's own at most
         h.rulesFrom = int(m_rules.size());
         m_rules.insert(m_rules.end(), t.rules.begin(), t.rules.end());
         h.rulesTo = int(m_rules.size());
@@ -190,6 +190,31 @@ void RecordProgram::buildHot() {
                 h.quickNumber = n.number;
             }
         }
+    }
+    markRuns();
+}
+
+// Runs of variables under the same quick filter of an earlier item, without
+// rules: classifyForward answers the filter once for the run. The filter's item
+// is before the run, so its value cannot change within it.
+void RecordProgram::markRuns() {
+    auto member = [&](size_t p) {
+        const Hot& h = m_hot[p];
+        return h.quickNode >= 0 && h.rulesFrom == h.rulesTo && h.counterOffset >= 0;
+    };
+    for (size_t a = 0; a < m_hot.size();) {
+        size_t b = a + 1;
+        if (member(a)) {
+            const Hot& first = m_hot[a];
+            while (b < m_hot.size() && member(b) && m_hot[b].quickPosition == first.quickPosition &&
+                   m_hot[b].quickOp == first.quickOp && m_hot[b].quickNumber == first.quickNumber)
+                ++b;
+            if (size_t(first.quickPosition) >= a) // reads an item of the run: no run
+                b = a + 1;
+        }
+        if (b > a + 1)
+            m_hot[a].runEnd = int(b);
+        a = b;
     }
 }
 
@@ -535,7 +560,7 @@ void RecordProgram::route(Scratch& s) const {
         }
         const Hot& t = m_hot[size_t(position)];
         bool pass = true;
-        for (int f = t.filtersFrom; f < t.filtersTo && pass; ++f)
+        for (int f = t.filtersFrom; f < t.filtersFrom + t.filterCount && pass; ++f)
             pass = evaluate(m_filters[size_t(f)], s);
         if (!pass) {
             s.live[size_t(position)] = 0; // filtered: empty
@@ -674,39 +699,29 @@ void RecordProgram::classifyForward(RecordFields fields, Scratch& s, const Tally
     std::memset(s.implied.data(), 0, size_t(count));
     // The classes met, one bit each: one register instead of a flag per question.
     unsigned seen = 0;
-    int next = 0;
-    for (int p = 0; p < count; ++p) {
-        const Hot& t = hot[p];
-        const QByteArrayView v = t.column >= 0 ? field[t.column] : QByteArrayView();
-        if (p >= next && filtersHold(t, live, cells, s)) { // presented
-            live[p] = 1;
-            next = p + 1;
-            Cell& cell = cells[p];
-            // A small number sets every field that a number's readers use; the
-            // text and the codes are read only in the states that set them.
-            if (!decodeSmall(t, v, cell))
-                decode(size_t(p), fields, cell, s);
-            for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
-                const Rule& rule = m_rules[size_t(r)];
-                if (rule.condition < 0 || test(rule.condition, s)) {
-                    next = rule.target;
-                    break;
-                }
-            }
-            if (t.counterOffset < 0)
-                continue; // a statement: no variable
-            const CellClass c = cell.presentedClass;
-            classes[p] = c;
-            seen |= 1u << int(c);
-            ++allCounters[t.counterOffset + int(c)];
-            countCodes(cell, s, frequencies);
-            continue;
-        }
-        if (t.counterOffset < 0) // filtered or jumped over
-            continue;
+    // A presented item's cell, decoded.
+    auto present = [&](int p, const Hot& t) __attribute__((always_inline))->Cell& {
+        live[p] = 1;
+        Cell& cell = cells[p];
+        // A small number sets every field that a number's readers use; the
+        // text and the codes are read only in the states that set them.
+        if (!decodeSmall(t, t.column >= 0 ? field[t.column] : QByteArrayView(), cell))
+            decode(size_t(p), fields, cell, s);
+        return cell;
+    };
+    auto countPresented = [&](int p, const Hot& t, const Cell& cell)
+        __attribute__((always_inline)) {
+        const CellClass c = cell.presentedClass;
+        classes[p] = c;
+        seen |= 1u << int(c);
+        ++allCounters[t.counterOffset + int(c)];
+        countCodes(cell, s, frequencies);
+    };
+    // A variable filtered or jumped over.
+    auto skip = [&](int p, const Hot& t) __attribute__((always_inline)) {
         qint64* const counters = allCounters + t.counterOffset;
         bool legitimate = true;
-        if (t.type == ItemType::Multi || !v.isEmpty()) {
+        if (t.type == ItemType::Multi || (t.column >= 0 && !field[t.column].isEmpty())) {
             Cell cell;
             decode(size_t(p), fields, cell, s);
             legitimate = cell.skipIsLegitimate;
@@ -715,7 +730,7 @@ void RecordProgram::classifyForward(RecordFields fields, Scratch& s, const Tally
             classes[p] = CellClass::RoutingViolation;
             seen |= 1u << int(CellClass::RoutingViolation);
             ++counters[int(CellClass::RoutingViolation)];
-            continue;
+            return;
         }
         classes[p] = CellClass::LegitimateSkip;
         unsigned unknown = 0; // a gate that is nonresponse, or itself skipped after one
@@ -726,6 +741,39 @@ void RecordProgram::classifyForward(RecordFields fields, Scratch& s, const Tally
         unknownSkip[p] = uint8_t(unknown);
         ++counters[int(CellClass::LegitimateSkip)];
         counters[SkipAfterMissingGate] += unknown;
+    };
+    int next = 0;
+    for (int p = 0; p < count; ++p) {
+        const Hot& t = hot[p];
+        if (t.runEnd > p + 1 && next <= p) {
+            // A run of variables asked under one filter of an earlier item, none
+            // with rules: one answer for all of them, and no branch per item.
+            const int end = t.runEnd;
+            if (filtersHold(t, live, cells, s)) {
+                for (; p < end; ++p)
+                    countPresented(p, hot[p], present(p, hot[p]));
+            } else {
+                for (; p < end; ++p)
+                    skip(p, hot[p]);
+            }
+            --p;
+            continue;
+        }
+        if (p >= next && filtersHold(t, live, cells, s)) { // presented
+            const Cell& cell = present(p, t);
+            next = p + 1;
+            for (int r = t.rulesFrom; r < t.rulesTo; ++r) {
+                const Rule& rule = m_rules[size_t(r)];
+                if (rule.condition < 0 || test(rule.condition, s)) {
+                    next = rule.target;
+                    break;
+                }
+            }
+            if (t.counterOffset >= 0) // else a statement: no variable
+                countPresented(p, t, cell);
+        } else if (t.counterOffset >= 0) { // filtered or jumped over
+            skip(p, t);
+        }
     }
     std::memcpy(s.presented.data(), live, size_t(count));
     s.loop = false;

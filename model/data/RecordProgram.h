@@ -157,14 +157,17 @@ private:
         int quickNode = -1, quickPosition = -1;
         int counterOffset = -1; // resultIndex * kCounters; -1: no variable
         int column = -1, frequencyBase = 0;
-        int filtersFrom = 0, filtersTo = 0; // in m_filters
-        int rulesFrom = 0, rulesTo = 0;     // in m_rules
-        int gatesFrom = 0, gatesTo = 0;     // in m_gates
+        int filtersFrom = 0;            // in m_filters, filterCount of them
+        int runEnd = 0;                 // the first of a run (markRuns): one past its last item
+        int rulesFrom = 0, rulesTo = 0; // in m_rules
+        int gatesFrom = 0, gatesTo = 0; // in m_gates
         ItemType type : 8 = ItemType::Statement;
         cond::CompareOp quickOp : 8 = cond::CompareOp::Eq;
         bool hasImplied = false; // impliedIf is in ItemProgram
+        uint8_t filterCount = 0;
     };
     void buildHot();
+    void markRuns();
 
     int compile(const cond::Expr& expr, const CompiledRouting& routing);
     static Literal literal(const cond::Value& v);
@@ -193,7 +196,7 @@ private:
                 return numbersHold(t.quickOp, cells[q].number, t.quickNumber);
             return evaluate(t.quickNode, s);
         }
-        for (int f = t.filtersFrom; f < t.filtersTo; ++f)
+        for (int f = t.filtersFrom; f < t.filtersFrom + t.filterCount; ++f)
             if (!test(m_filters[size_t(f)], s))
                 return false;
         return true;

@@ -110,6 +110,7 @@ private slots:
     void rangeParserMatchesStreamingReader();
     void byteOrderMarkIsNotPartOfTheFirstField();
     void threeDigitCellsByHand();
+    void runsUnderOneFilterByHand();
 };
 
 // Routing of garden.yaml: has_garden, then (if has_garden <> 1, i.e. 2, 8, 9 or
@@ -811,6 +812,55 @@ modules:
     QCOMPARE(unit->answered, 2);
     QCOMPARE(unit->nonresponseByKind[0], 3); // blank
     QCOMPARE(unit->legitimateSkip, 3);
+}
+
+// Items under one filter of an earlier item are classed as a run, the filter
+// answered once (RecordProgram::markRuns); a goto into the run and a filter
+// that reads the run's own first item must still be followed item by item.
+// r1..r4 are asked when h = 1, but g = 2 jumps to r3; s1 and s2 are asked when
+// s1 <> 1, which for s1 itself reads an empty cell (true: `<>` is `not =`).
+//   rec1 h=1 g=1: r1-r4 answered; s1=1; s2 skipped (blank)
+//   rec2 h=1 g=2: r1 r2 jumped over (blank); r3 r4 answered; s1=2; s2=1 asked, answered
+//   rec3 h=2 g=1: r1-r4 skipped; s1 blank; s2 asked (s1 blank <> 1), blank
+//   rec4 h=1 g=2: r1=1 jumped over: violation; r2 skipped; r3 blank; r4=1; s1=1; s2=2 violation
+void TestDataCheck::runsUnderOneFilterByHand() {
+    const QByteArray yaml = R"(routebook: 1
+instrument: {title: "Runs", version: "1", language: "en"}
+code_lists:
+  yn: [{code: 1, label: "Yes"}, {code: 2, label: "No"}]
+modules:
+  - name: m
+    items:
+      - {name: h, text: "H?", type: single, codes: yn}
+      - {name: g, text: "G?", type: single, codes: yn, routing: [{if: "g = 2", goto: r3}]}
+      - {name: r1, text: "R1?", type: single, codes: yn, ask_if: "h = 1"}
+      - {name: r2, text: "R2?", type: single, codes: yn, ask_if: "h = 1"}
+      - {name: r3, text: "R3?", type: single, codes: yn, ask_if: "h = 1"}
+      - {name: r4, text: "R4?", type: single, codes: yn, ask_if: "h = 1"}
+      - {name: s1, text: "S1?", type: single, codes: yn, ask_if: "s1 <> 1"}
+      - {name: s2, text: "S2?", type: single, codes: yn, ask_if: "s1 <> 1"}
+)";
+    LoadResult loaded = loadYamlText(yaml, u"runs.yaml"_s);
+    QVERIFY2(loaded.ok(), qPrintable(formatDiagnostics(loaded.errors)));
+    const DataCheckOutcome outcome = check(*loaded.instrument, "h,g,r1,r2,r3,r4,s1,s2\n"
+                                                               "1,1,1,1,1,1,1,\n"
+                                                               "1,2,,,1,2,2,1\n"
+                                                               "2,1,,,,,,\n"
+                                                               "1,2,1,,,1,1,2\n");
+    QVERIFY2(outcome.result, qPrintable(outcome.error ? outcome.error->toString() : QString()));
+    // presented, answered, blank, legitimate skip, violation
+    auto counts = [&](const QString& name) {
+        const ItemCounts* c = item(*outcome.result, name);
+        return c ? QList<qint64>{c->presented, c->answered, c->nonresponseByKind[0],
+                                 c->legitimateSkip, c->routingViolation}
+                 : QList<qint64>();
+    };
+    QCOMPARE(counts(u"r1"_s), (QList<qint64>{1, 1, 0, 2, 1}));
+    QCOMPARE(counts(u"r2"_s), (QList<qint64>{1, 1, 0, 3, 0}));
+    QCOMPARE(counts(u"r3"_s), (QList<qint64>{3, 2, 1, 1, 0}));
+    QCOMPARE(counts(u"r4"_s), (QList<qint64>{3, 3, 0, 1, 0}));
+    QCOMPARE(counts(u"s1"_s), (QList<qint64>{4, 3, 1, 0, 0}));
+    QCOMPARE(counts(u"s2"_s), (QList<qint64>{2, 1, 1, 1, 1}));
 }
 
 QTEST_GUILESS_MAIN(TestDataCheck)
