@@ -151,6 +151,7 @@ int runDataCheckCommand(const CommandArgs& args, QTextStream& out, QTextStream& 
     ProgressPrinter progress(err, QFileInfo(dataPath).size());
     DataCheckOptions options;
     options.idColumn = settings->idColumn;
+    options.mapRegularFiles = true; // a one-off run: nothing to lose if the file is cut under it
     options.progress = [&progress](qint64 done) { return progress(done); };
     AnalysisOptions analysisOptions;
     analysisOptions.flags = args.flag(QStringLiteral("--flags"));

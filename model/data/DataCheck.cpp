@@ -96,18 +96,19 @@ public:
 #endif
 
 // Reads the response file in blocks that end at a record boundary. A regular
-// file is mapped window by window (its bytes are not copied: the copy out of
-// the page cache was a tenth of the reading thread's time); anything else is
-// read, and the bytes after the last boundary are carried into the next block.
+// file may be mapped window by window (DataCheckOptions::mapRegularFiles: its
+// bytes are not copied, and the copy out of the page cache was a tenth of the
+// reading thread's time); otherwise it is read, and the bytes after the last
+// boundary are carried into the next block.
 class BlockReader {
 public:
     // Blocks of a few MB are checked one per task: large enough that the
     // per-block work is noise, small enough that a few in flight stay far below
     // 100 MB and that cancelling waits for at most one block.
-    BlockReader(QIODevice& device, qint64 maxRecordBytes, qsizetype blockBytes)
+    BlockReader(QIODevice& device, qint64 maxRecordBytes, qsizetype blockBytes, bool map)
         : m_device(device), m_maxRecordBytes(maxRecordBytes),
           m_blockBytes(qMax<qsizetype>(blockBytes, 1)) {
-        auto* file = qobject_cast<QFileDevice*>(&device);
+        auto* file = map ? qobject_cast<QFileDevice*>(&device) : nullptr;
         if (file && !file->isSequential() && file->handle() >= 0 &&
             !file->openMode().testFlag(QIODevice::Text)) { // text mode would change the bytes
             m_fd = file->handle();
@@ -451,7 +452,8 @@ DataCheckOutcome runDataCheck(const CompiledRouting& routing, QIODevice& csv,
     // A block's analysis rows are as long as the block and, with flags, several
     // times longer: smaller blocks keep the rows in flight as small as the blocks were.
     BlockReader reader(csv, options.maxRecordBytes,
-                       analysis ? qMax<qsizetype>(options.blockBytes / 4, 1) : options.blockBytes);
+                       analysis ? qMax<qsizetype>(options.blockBytes / 4, 1) : options.blockBytes,
+                       options.mapRegularFiles);
     Task first;
     if (!reader.next(first.block)) {
         outcome.error = Diagnostic{

@@ -76,6 +76,11 @@ struct DataCheckOptions {
     // Records are read and checked in blocks of about this many bytes (tests use
     // tiny blocks to exercise the merge).
     qsizetype blockBytes = 4 << 20;
+    // Map a regular file window by window instead of reading it (no copy out
+    // of the page cache). Off by default: another program truncating the file
+    // while it is mapped ends the process (SIGBUS), which the command line can
+    // afford and the editor, holding unsaved work, cannot.
+    bool mapRegularFiles = false;
     // Called now and then (on the calling thread) with the bytes checked so far;
     // returning false cancels.
     std::function<bool(qint64 bytesRead)> progress;

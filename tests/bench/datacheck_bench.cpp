@@ -104,6 +104,7 @@ static int runCheck(const QString& dir, int threads) {
     clock.start();
     DataCheckOptions options;
     options.threads = threads;
+    options.mapRegularFiles = true; // as the command line does
     const DataCheckOutcome outcome = runDataCheck(routing, data, data.fileName(), options);
     const double seconds = double(clock.nsecsElapsed()) / 1e9;
     rusage usage{};

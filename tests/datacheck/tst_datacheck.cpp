@@ -639,8 +639,8 @@ void TestDataCheck::blocksAndThreadsGiveTheSameResult() {
     LoadResult loaded = loadYamlFile(instrument);
     QVERIFY(loaded.ok());
     const CompiledRouting routing(*loaded.instrument);
-    // The same bytes as a file: a regular file is mapped window by window
-    // instead of read (DataCheck.cpp's BlockReader), which must not show.
+    // The same bytes as a file, mapped window by window instead of read
+    // (DataCheckOptions::mapRegularFiles, as the command line does): must not show.
     QTemporaryFile file;
     QVERIFY(file.open());
     QCOMPARE(file.write(csv), qint64(csv.size()));
@@ -660,6 +660,7 @@ void TestDataCheck::blocksAndThreadsGiveTheSameResult() {
         options.blockBytes = blockBytes;
         options.threads = threads;
         options.invalidCellsKept = 1000;
+        options.mapRegularFiles = mapped;
         // The analysis file too: its rows are written by the checking threads,
         // block by block, and must come out in file order whatever the split.
         QBuffer analysis;
@@ -768,8 +769,10 @@ void TestDataCheck::byteOrderMarkIsNotPartOfTheFirstField() {
     QVERIFY(file.flush());
     QFile mapped(file.fileName());
     QVERIFY(mapped.open(QIODevice::ReadOnly));
+    DataCheckOptions options;
+    options.mapRegularFiles = true;
     for (QIODevice* device : {static_cast<QIODevice*>(&buffer), static_cast<QIODevice*>(&mapped)}) {
-        const DataCheckOutcome outcome = runDataCheck(routing, *device, u"d.csv"_s, {});
+        const DataCheckOutcome outcome = runDataCheck(routing, *device, u"d.csv"_s, options);
         QVERIFY(outcome.error);
         QCOMPARE(outcome.error->line, 1);
         QCOMPARE(outcome.error->column, 6);
