@@ -1,5 +1,7 @@
 #pragma once
 
+#include "HugePageAllocator.h"
+
 #include <cstdint>
 #include <optional>
 #include <vector>
@@ -70,8 +72,8 @@ private:
     void growTable(int var);
 
     std::vector<int> m_domains;
-    std::vector<Node> m_nodes;
-    std::vector<int> m_pool;
+    std::vector<Node, HugePageAllocator<Node>> m_nodes;
+    std::vector<int, HugePageAllocator<int>> m_pool;
     // The unique table, one open-addressing table of node ids (-1 empty) per
     // variable: the analysis works on a window of nearby variables at a time,
     // so their small tables stay in the cache where one big table would miss
@@ -81,8 +83,8 @@ private:
         std::size_t used = 0;
     };
     std::vector<UniqueTable> m_unique;
-    std::vector<CacheEntry> m_cache;                        // lossy, direct mapped
-    mutable std::vector<std::uint32_t> m_stamp, m_varStamp; // visit marks for support()
+    std::vector<CacheEntry, HugePageAllocator<CacheEntry>> m_cache; // lossy, direct mapped
+    mutable std::vector<std::uint32_t> m_stamp, m_varStamp;         // visit marks for support()
     mutable std::uint32_t m_generation = 0;
 };
 
