@@ -126,13 +126,6 @@ private:
     }
 };
 
-void collectNames(const Expr& e, QList<NameUse>& out) {
-    if (e.isAtom())
-        out.append({e.name, e.nameColumn, e.position});
-    for (const ExprPtr& child : e.children)
-        collectNames(*child, out);
-}
-
 } // namespace
 
 QList<ConditionProblem> typeCheck(const Expr& expr, const ItemIndex& index) {
@@ -143,7 +136,9 @@ QList<ConditionProblem> typeCheck(const Expr& expr, const ItemIndex& index) {
 
 QList<NameUse> namesRead(const Expr& expr) {
     QList<NameUse> names;
-    collectNames(expr, names);
+    forEachNameRead(expr, [&](const Expr& atom) {
+        names.append({atom.name, atom.nameColumn, atom.position});
+    });
     return names;
 }
 
