@@ -6,10 +6,13 @@
 
 #include <QSet>
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
 namespace rb {
+
+using namespace Qt::StringLiterals;
 
 namespace {
 
@@ -18,8 +21,15 @@ struct Place {
     const Item* item = nullptr; // null for module-level
     const Module* module = nullptr;
     int position = -1;
-    QString field;
+    QString field;    // a rule's: "if" or "goto", written out as "routing[k].if"
     QString codeList; // set for findings about a shared code list
+    int rule = -1;    // the rule's index, for a rule's field
+
+    // The field's text is made only for a finding: every rule of a large
+    // instrument has two places, and nearly none of them ever has a finding.
+    QString fieldText() const {
+        return rule < 0 ? field : u"routing["_s + QString::number(rule) + u"]."_s + field;
+    }
 };
 
 class Checker {
@@ -44,7 +54,7 @@ private:
         f.severity = severity;
         f.item = place.item ? place.item->name : QString();
         f.module = place.module ? place.module->name : QString();
-        f.field = place.field;
+        f.field = place.fieldText();
         f.subject = place.codeList;
         f.column = column;
         f.message = message;
@@ -70,8 +80,9 @@ private:
     };
     void claimName(const QString& name, const Place& place, const Claimant& who);
     void checkCodeLists();
+    // Reports codes already in `seen` (kept sorted) and adds the others to it.
     void checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
-                    QSet<qint64>& seen);
+                    std::vector<qint64>& seen);
     void checkItem(const ItemIndex::Entry& entry);
     void checkItemCodes(const ItemIndex::Entry& entry);
     void checkRange(const ItemIndex::Entry& entry);
@@ -79,7 +90,10 @@ private:
     void checkModules();
     // Parses, type-checks and looks for forward references and unknown codes.
     // `limit`: the condition may read items at positions < limit only.
-    void checkCondition(const QString& text, const Place& place, int limit, const QString& why);
+    // `compiled`: the routing's tree of this text when it compiled (then it
+    // has neither syntax nor type problems, and is not parsed again).
+    void checkCondition(const QString& text, const Place& place, int limit, const QString& why,
+                        const cond::ExprPtr& compiled = nullptr);
     void checkUnknownCodes(const cond::Expr& expr, const Place& place);
 
     const CompiledRouting& m_routing;
@@ -87,6 +101,7 @@ private:
     Findings m_findings;
     NameTable m_names; // name (any case) -> index in m_claimants
     QList<Claimant> m_claimants;
+    std::vector<qint64> m_seen; // checkItemCodes's codes so far, reused from item to item
 };
 
 QString Checker::Claimant::words() const {
@@ -143,16 +158,18 @@ void Checker::checkNames() {
 }
 
 void Checker::checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
-                         QSet<qint64>& seen) {
+                         std::vector<qint64>& seen) {
     for (int i = 0; i < codes.size(); ++i) {
         const qint64 code = codes.at(i).code;
-        if (seen.contains(code)) {
+        const auto at = std::lower_bound(seen.begin(), seen.end(), code);
+        if (at != seen.end() && *at == code) {
             Place p = place;
             p.field = QStringLiteral("%1[%2]").arg(fieldPrefix).arg(i);
             add(p, QStringLiteral("duplicate-code"), Severity::Error,
                 QStringLiteral("code %1 appears more than once").arg(code));
+        } else {
+            seen.insert(at, code);
         }
-        seen.insert(code);
     }
 }
 
@@ -168,7 +185,7 @@ void Checker::checkCodeLists() {
         if (list.codes.isEmpty())
             add(place, QStringLiteral("empty-code-list"), Severity::Error,
                 QStringLiteral("code list '%1' has no codes").arg(list.name));
-        QSet<qint64> seen;
+        std::vector<qint64> seen;
         checkCodes(list.codes, place, place.field, seen);
         if (!used.contains(list.name.toLower()))
             add(place, QStringLiteral("unused-code-list"), Severity::Warning,
@@ -185,16 +202,20 @@ bool isNumeric(ItemType type) {
 
 void Checker::checkItemCodes(const ItemIndex::Entry& e) {
     const Item& item = *e.item;
-    QSet<qint64> seen;
-    if (item.hasInlineCodes)
+    std::vector<qint64>& seen = m_seen;
+    seen.clear();
+    if (item.hasInlineCodes) {
         checkCodes(item.inlineCodes, itemPlace(e, {}), QStringLiteral("codes"), seen);
-    else if (const CodeList* list = m_routing.instrument().findCodeList(item.codeListName))
-        for (const Code& c : list->codes)
-            seen.insert(c.code);
+    } else if (!item.missing.isEmpty()) {
+        if (const CodeList* list = m_routing.instrument().findCodeList(item.codeListName))
+            for (const Code& c : list->codes)
+                seen.push_back(c.code);
+        std::sort(seen.begin(), seen.end());
+    }
     checkCodes(item.missing, itemPlace(e, {}), QStringLiteral("missing"), seen);
     if (isCoded(item.type)) {
-        QList<Code> codes = m_routing.instrument().codesOf(item);
-        if (codes.isEmpty())
+        // The routing's codes of the item: the codes and missing codes it holds.
+        if (m_routing.codes(e.position).isEmpty())
             add(itemPlace(e, QStringLiteral("codes")), QStringLiteral("empty-code-list"),
                 Severity::Error,
                 QStringLiteral("%1 item '%2' has no codes")
@@ -226,14 +247,18 @@ void Checker::checkRange(const ItemIndex::Entry& e) {
 
 void Checker::checkRules(const ItemIndex::Entry& e) {
     const Item& item = *e.item;
+    const QList<CompiledRouting::CompiledRule>& compiled = m_routing.item(e.position).rules;
     for (int k = 0; k < item.routing.size(); ++k) {
         const Rule& rule = item.routing.at(k);
+        Place ifPlace = itemPlace(e, u"if"_s);
+        ifPlace.rule = k;
         if (rule.condition)
             // A rule is evaluated after its item is presented: it may read the item itself.
-            checkCondition(*rule.condition, itemPlace(e, QStringLiteral("routing[%1].if").arg(k)),
-                           e.position + 1, QStringLiteral("a later item"));
-        const Place goPlace = itemPlace(e, QStringLiteral("routing[%1].goto").arg(k));
-        const int target = m_index.resolveTarget(rule.target);
+            checkCondition(*rule.condition, ifPlace, e.position + 1, QStringLiteral("a later item"),
+                           compiled.at(k).condition);
+        Place goPlace = itemPlace(e, u"goto"_s);
+        goPlace.rule = k;
+        const int target = compiled.at(k).target;
         if (target < 0)
             add(goPlace, QStringLiteral("unknown-target"), Severity::Error,
                 QStringLiteral("goto '%1' names no item, module or END").arg(rule.target));
@@ -246,15 +271,23 @@ void Checker::checkRules(const ItemIndex::Entry& e) {
 
 void Checker::checkItem(const ItemIndex::Entry& e) {
     const Item& item = *e.item;
-    if (item.text.trimmed().isEmpty())
+    // Read in place: trimmed() would copy (or share) every item's text.
+    const bool blank = std::all_of(item.text.cbegin(), item.text.cend(),
+                                   [](QChar c) { return c.isSpace(); });
+    if (blank)
         add(itemPlace(e, QStringLiteral("text")), QStringLiteral("missing-text"), Severity::Warning,
             QStringLiteral("item '%1' has no question text").arg(item.name));
     checkItemCodes(e);
     checkRange(e);
-    if (item.askIf)
+    if (item.askIf) {
         // A filter is evaluated before its item is presented: earlier items only.
+        // The routing keeps the item's own filter last when it compiled.
+        const CompiledRouting::CompiledItem& c = m_routing.item(e.position);
+        const bool ownCompiled = c.filters.size() > (c.hasModuleFilter ? 1 : 0);
         checkCondition(*item.askIf, itemPlace(e, QStringLiteral("ask_if")), e.position,
-                       QStringLiteral("the item itself or a later item"));
+                       QStringLiteral("the item itself or a later item"),
+                       ownCompiled ? c.filters.last() : nullptr);
+    }
     checkRules(e);
     if (item.whenSkipped && item.whenSkipped->condition)
         checkCondition(*item.whenSkipped->condition,
@@ -276,29 +309,33 @@ void Checker::checkModules() {
     }
 }
 
-void Checker::checkCondition(const QString& text, const Place& place, int limit,
-                             const QString& why) {
-    const cond::ParseResult parsed = cond::parseCondition(text);
-    if (!parsed.ok()) {
-        add(place, QStringLiteral("syntax"), Severity::Error,
-            parsed.error ? parsed.error->message : QStringLiteral("cannot parse the condition"),
-            parsed.error ? parsed.error->column : 1);
-        return;
+void Checker::checkCondition(const QString& text, const Place& place, int limit, const QString& why,
+                             const cond::ExprPtr& compiled) {
+    cond::ExprPtr expr = compiled;
+    QList<cond::ConditionProblem> problems;
+    if (!expr) {
+        const cond::ParseResult parsed = cond::parseCondition(text);
+        if (!parsed.ok()) {
+            add(place, QStringLiteral("syntax"), Severity::Error,
+                parsed.error ? parsed.error->message : QStringLiteral("cannot parse the condition"),
+                parsed.error ? parsed.error->column : 1);
+            return;
+        }
+        expr = parsed.expr;
+        problems = cond::typeCheck(*expr, m_index);
     }
-    const QList<cond::ConditionProblem> problems = cond::typeCheck(*parsed.expr, m_index);
     for (const cond::ConditionProblem& p : problems)
         add(place, p.check, Severity::Error, p.message, p.column);
-    for (const cond::NameUse& use : cond::namesRead(*parsed.expr)) {
-        const int read = m_routing.positionOf(use.name);
-        if (read >= limit)
+    cond::forEachNameRead(*expr, [&](const cond::Expr& atom) {
+        if (m_routing.positionOf(atom) >= limit)
             add(place, QStringLiteral("forward-reference"), Severity::Error,
                 QStringLiteral("the condition reads '%1', which is %2: it is not asked yet when "
                                "the condition is evaluated")
-                    .arg(use.name, why),
-                use.column);
-    }
+                    .arg(atom.name, why),
+                atom.nameColumn);
+    });
     if (problems.isEmpty())
-        checkUnknownCodes(*parsed.expr, place);
+        checkUnknownCodes(*expr, place);
 }
 
 // The values an item may hold when presented, as closed intervals (codes are points).
