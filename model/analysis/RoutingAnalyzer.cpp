@@ -174,11 +174,8 @@ int RoutingAnalyzer::careSet(const QList<int>& keep) {
 }
 
 ItemUniverse RoutingAnalyzer::universe(int position, Sop* sopOut) {
-    const ItemIndex::Entry& entry = m_routing.index().at(position);
     ItemUniverse u;
     u.position = position;
-    u.name = entry.item->name;
-    u.module = entry.module->name;
     Sop sop;
     if (m_presented.at(position) == Mdd::False) {
         u.asked = ItemUniverse::Asked::Never;
@@ -222,8 +219,7 @@ ItemUniverse RoutingAnalyzer::universe(int position, Sop* sopOut) {
     } else {
         u.asked = ItemUniverse::Asked::Conditional;
         u.askedIf = printer.condition(sop);
-        for (int p : keep)
-            u.gateItems.append(m_routing.index().at(p).item->name);
+        u.gatePositions = keep;
     }
     u.plain = printer.words(sop);
     if (sopOut)
@@ -605,6 +601,7 @@ RoutingAnalysis RoutingAnalyzer::analysis() {
     for (int i = 0; i < m_routing.itemCount(); ++i)
         result.universes.append(universe(i));
     result.findings = findings();
+    result.keepNames(m_routing);
     return result;
 }
 
@@ -615,6 +612,19 @@ namespace rb {
 RoutingAnalysis analyzeRouting(const CompiledRouting& routing) {
     analysis::RoutingAnalyzer analyzer(routing);
     return analyzer.analysis();
+}
+
+void RoutingAnalysis::keepNames(const CompiledRouting& routing) {
+    m_instrument = routing.instrument();
+    m_entries = routing.index().entries();
+}
+
+QStringList RoutingAnalysis::gateItems(const ItemUniverse& u) const {
+    QStringList names;
+    names.reserve(u.gatePositions.size());
+    for (int p : u.gatePositions)
+        names.append(itemName(p));
+    return names;
 }
 
 QString askedName(ItemUniverse::Asked asked) {

@@ -153,7 +153,7 @@ int runGates(const CommandArgs& args, QTextStream& out, QTextStream& err) {
         return Ok;
     }
     for (const ItemUniverse& u : analysis.universes) {
-        out << u.name << ": " << askedName(u.asked);
+        out << analysis.itemName(u.position) << ": " << askedName(u.asked);
         if (u.asked == ItemUniverse::Asked::Conditional)
             out << " if " << u.askedIf << "\n    " << u.plain;
         out << '\n';

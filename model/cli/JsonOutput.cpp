@@ -32,22 +32,6 @@ QJsonObject findingsToJson(const Findings& findings) {
     return {{QStringLiteral("findings"), list}, {QStringLiteral("summary"), summary}};
 }
 
-QJsonObject gatesToJson(const RoutingAnalysis& analysis) {
-    QJsonArray items;
-    for (const ItemUniverse& u : analysis.universes) {
-        const bool conditional = u.asked == ItemUniverse::Asked::Conditional;
-        items.append(QJsonObject{
-            {QStringLiteral("name"), u.name},
-            {QStringLiteral("module"), u.module},
-            {QStringLiteral("asked"), askedName(u.asked)},
-            {QStringLiteral("asked_if"), conditional ? QJsonValue(u.askedIf) : QJsonValue()},
-            {QStringLiteral("gate_items"), QJsonArray::fromStringList(u.gateItems)},
-            {QStringLiteral("plain"), u.plain},
-            {QStringLiteral("minimal"), u.minimal}});
-    }
-    return {{QStringLiteral("items"), items}};
-}
-
 QJsonObject routeToJson(const CompiledRouting& routing, const RouteResult& route) {
     QJsonArray path, notPresented;
     QList<bool> presented(routing.itemCount(), false);

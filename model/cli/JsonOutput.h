@@ -1,5 +1,6 @@
 #pragma once
 
+#include "analysis/GatesJson.h" // gatesToJson, for `gates --json`
 #include "analysis/RoutingAnalysis.h"
 #include "check/Finding.h"
 #include "routing/CompiledRouting.h"
@@ -11,7 +12,6 @@ namespace rb {
 
 // The JSON shapes of DESIGN.md "Command line".
 QJsonObject findingsToJson(const Findings& findings);
-QJsonObject gatesToJson(const RoutingAnalysis& analysis);
 QJsonObject routeToJson(const CompiledRouting& routing, const RouteResult& route);
 
 } // namespace rb

@@ -109,8 +109,8 @@ private:
         e.asked = u.asked;
         e.askedIf = u.asked == ItemUniverse::Asked::Conditional ? u.askedIf : QString();
         e.plain = u.plain;
-        for (const QString& g : u.gateItems)
-            e.gates.append({g, QString(), -1});
+        for (int g : u.gatePositions)
+            e.gates.append({m_routing.index().at(g).item->name, QString(), -1});
         e.notPresented =
             notPresentedWords(u, item, m_routing.instrument().settings.legitimateSkipCode);
         e.implied = item.whenSkipped;
