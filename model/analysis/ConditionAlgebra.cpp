@@ -90,8 +90,10 @@ ConditionAlgebra::ConditionAlgebra(const CompiledRouting& routing,
                 collect(*r.condition);
     }
     for (const cond::ExprPtr& e : extra)
-        if (e)
+        if (e) {
+            m_keepAlive.append(e); // its atoms are kept by address
             collect(*e);
+        }
     buildVariables();
 }
 
@@ -107,7 +109,7 @@ void ConditionAlgebra::collect(const cond::Expr& expr) {
     ItemAtoms& atoms = m_atoms[position];
     if (expr.kind == cond::Expr::Kind::Asked)
         return;
-    atoms.atoms.append(std::make_shared<cond::Expr>(expr));
+    atoms.atoms.append(&expr);
     if (expr.kind == cond::Expr::Kind::Has && expr.value.isNumber() &&
         std::floor(expr.value.number) == expr.value.number) {
         const qint64 code = qint64(expr.value.number);
@@ -130,8 +132,12 @@ void ConditionAlgebra::buildVariables() {
 
 cond::Environment ConditionAlgebra::singleEnvironment(int position,
                                                       const cond::CellValue& value) const {
+    // Captured by address: a copy of the value would not fit std::function's
+    // own storage and cost an allocation per environment (one per cell and
+    // atom of every gate item). The environment lives no longer than `value`.
     cond::Environment env;
-    env.value = [value](const QString&) { return value; };
+    const cond::CellValue* valueAt = &value;
+    env.value = [valueAt](const QString&) { return *valueAt; };
     const CompiledRouting* routing = m_routing;
     env.isMissingCode = [routing, position](const QString&, qint64 code) {
         return routing->isMissingCode(position, code);
@@ -142,11 +148,10 @@ cond::Environment ConditionAlgebra::singleEnvironment(int position,
 QList<bool> ConditionAlgebra::signature(int position, const ItemAtoms& atoms,
                                         const cond::CellValue& v) const {
     const cond::Environment env = singleEnvironment(position, v);
-    cond::Expr answered;
+    cond::Expr answered; // the environment answers for this item whatever the name
     answered.kind = cond::Expr::Kind::Answered;
-    answered.name = m_routing->index().at(position).item->name;
     QList<bool> sig{v.presented(), cond::evaluate(answered, env)};
-    for (const cond::ExprPtr& a : atoms.atoms)
+    for (const cond::Expr* a : atoms.atoms)
         sig.append(cond::evaluate(*a, env));
     return sig;
 }
@@ -169,7 +174,7 @@ QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtom
         const double lo = item.range ? item.range->first.value : -inf;
         const double hi = item.range ? item.range->second.value : inf;
         QList<double> points;
-        for (const cond::ExprPtr& a : atoms.atoms)
+        for (const cond::Expr* a : atoms.atoms)
             numbersOf(*a, points);
         QList<double> missing;
         for (const Code& c : item.missing)
@@ -197,7 +202,7 @@ QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtom
     // Text and dates: blank, every literal, and a value just after each literal
     // (text orders by code units, so these stand for every other string).
     QStringList literals;
-    for (const cond::ExprPtr& a : atoms.atoms)
+    for (const cond::Expr* a : atoms.atoms)
         textsOf(*a, literals);
     literals.sort();
     literals.removeDuplicates();

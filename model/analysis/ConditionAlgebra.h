@@ -85,7 +85,9 @@ public:
 
 private:
     struct ItemAtoms {
-        QList<cond::ExprPtr> atoms; // Compare / In / Has / Answered on this item
+        // Compare / In / Has / Answered on this item, in the routing's trees (or
+        // the `extra` ones, kept alive): pointers, not copies of every atom.
+        QList<const cond::Expr*> atoms;
         QList<qint64> hasCodes;
     };
     void collect(const cond::Expr& expr);
@@ -96,6 +98,7 @@ private:
     QList<bool> signature(int position, const ItemAtoms& atoms, const cond::CellValue& v) const;
     int atom(const cond::Expr& expr);
     int valueCellOf(int var, const cond::CellValue& value) const;
+    // Every name reads `value` (by address: the environment must not outlive it).
     cond::Environment singleEnvironment(int position, const cond::CellValue& value) const;
 
     const CompiledRouting* m_routing;
