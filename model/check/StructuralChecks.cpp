@@ -5,9 +5,11 @@
 #include "instrument/NameTable.h"
 
 #include <QSet>
+#include <QVarLengthArray>
 
 #include <algorithm>
 #include <cmath>
+#include <deque>
 #include <limits>
 
 namespace rb {
@@ -72,10 +74,12 @@ private:
     void checkNames();
     // Who holds a name; worded only when a duplicate needs the message (every
     // item claims one, so building the words up front cost a string apiece).
+    // The names by address (the instrument's, or m_variableNames's): a copy
+    // per item touched every name string once more when the checker was freed.
     struct Claimant {
         enum class Kind { Module, Item, Variable } kind;
-        QString name;
-        QString item; // Variable: the multi item it belongs to
+        const QString* name;
+        const QString* item = nullptr; // Variable: the multi item it belongs to
         QString words() const;
     };
     void claimName(const QString& name, const Place& place, const Claimant& who);
@@ -101,17 +105,18 @@ private:
     Findings m_findings;
     NameTable m_names; // name (any case) -> index in m_claimants
     QList<Claimant> m_claimants;
-    std::vector<qint64> m_seen; // checkItemCodes's codes so far, reused from item to item
+    std::deque<QString> m_variableNames; // multi items' variables (addresses stay put)
+    std::vector<qint64> m_seen;          // checkItemCodes's codes so far, reused from item to item
 };
 
 QString Checker::Claimant::words() const {
     switch (kind) {
     case Kind::Module:
-        return QStringLiteral("module '%1'").arg(name);
+        return QStringLiteral("module '%1'").arg(*name);
     case Kind::Item:
-        return QStringLiteral("item '%1'").arg(name);
+        return QStringLiteral("item '%1'").arg(*name);
     case Kind::Variable:
-        return QStringLiteral("variable '%1' of multi item '%2'").arg(name, item);
+        return QStringLiteral("variable '%1' of multi item '%2'").arg(*name, *item);
     }
     return {};
 }
@@ -141,7 +146,7 @@ void Checker::checkNames() {
                 QStringLiteral("module name '%1' is not a valid name (a letter, then letters, "
                                "digits or _, at most 32, not a keyword nor END)")
                     .arg(module.name));
-        claimName(module.name, place, {Claimant::Kind::Module, module.name, {}});
+        claimName(module.name, place, {Claimant::Kind::Module, &module.name});
         for (const Item& item : module.items) {
             const Place ip{&item, &module, position++, QStringLiteral("name"), {}};
             if (!isValidItemName(item.name))
@@ -149,10 +154,12 @@ void Checker::checkNames() {
                     QStringLiteral("item name '%1' is not a valid name (a letter, then letters, "
                                    "digits or _, at most 32, not a keyword nor END)")
                         .arg(item.name));
-            claimName(item.name, ip, {Claimant::Kind::Item, item.name, {}});
+            claimName(item.name, ip, {Claimant::Kind::Item, &item.name});
             if (item.type == ItemType::Multi)
-                for (const QString& variable : multiVariableNames(instrument, item))
-                    claimName(variable, ip, {Claimant::Kind::Variable, variable, item.name});
+                for (const QString& variable : multiVariableNames(instrument, item)) {
+                    const QString& kept = m_variableNames.emplace_back(variable);
+                    claimName(kept, ip, {Claimant::Kind::Variable, &kept, &item.name});
+                }
         }
     }
 }
@@ -272,8 +279,8 @@ void Checker::checkRules(const ItemIndex::Entry& e) {
 void Checker::checkItem(const ItemIndex::Entry& e) {
     const Item& item = *e.item;
     // Read in place: trimmed() would copy (or share) every item's text.
-    const bool blank = std::all_of(item.text.cbegin(), item.text.cend(),
-                                   [](QChar c) { return c.isSpace(); });
+    const bool blank =
+        std::all_of(item.text.cbegin(), item.text.cend(), [](QChar c) { return c.isSpace(); });
     if (blank)
         add(itemPlace(e, QStringLiteral("text")), QStringLiteral("missing-text"), Severity::Warning,
             QStringLiteral("item '%1' has no question text").arg(item.name));
@@ -340,8 +347,10 @@ void Checker::checkCondition(const QString& text, const Place& place, int limit,
 
 // The values an item may hold when presented, as closed intervals (codes are points).
 using Interval = std::pair<double, double>;
-QList<Interval> possibleValues(const Item& item, const QList<Code>& codes) {
-    QList<Interval> values;
+// On the stack for the usual few codes: asked once per atom of every condition.
+using Intervals = QVarLengthArray<Interval, 16>;
+Intervals possibleValues(const Item& item, const QList<Code>& codes) {
+    Intervals values;
     for (const Code& c : codes)
         if (isCoded(item.type) || c.isMissing())
             values.append({double(c.code), double(c.code)});
@@ -353,7 +362,7 @@ QList<Interval> possibleValues(const Item& item, const QList<Code>& codes) {
     return values;
 }
 
-bool meets(const QList<Interval>& values, Interval wanted, bool openLow, bool openHigh) {
+bool meets(const Intervals& values, Interval wanted, bool openLow, bool openHigh) {
     for (const Interval& v : values) {
         const bool aboveLow = openLow ? v.second > wanted.first : v.second >= wanted.first;
         const bool belowHigh = openHigh ? v.first < wanted.second : v.first <= wanted.second;
@@ -364,7 +373,7 @@ bool meets(const QList<Interval>& values, Interval wanted, bool openLow, bool op
 }
 
 // The literal's value set, tested against what the item can hold.
-bool literalMeetsItem(const cond::Expr& atom, const QList<Interval>& values,
+bool literalMeetsItem(const cond::Expr& atom, const Intervals& values,
                       const cond::ListElement* element) {
     const double inf = std::numeric_limits<double>::infinity();
     if (element) {
@@ -400,7 +409,7 @@ void Checker::checkUnknownCodes(const cond::Expr& expr, const Place& place) {
     const Item& item = *m_index.at(position).item;
     if (!isCoded(item.type) && !isNumeric(item.type))
         return;
-    const QList<Interval> values = possibleValues(item, m_routing.codes(position));
+    const Intervals values = possibleValues(item, m_routing.codes(position));
     auto report = [&](const QString& literal) {
         add(place, QStringLiteral("unknown-code"), Severity::Warning,
             QStringLiteral("'%1' is compared with %2, which holds none of its %3")
