@@ -58,20 +58,22 @@ struct RangeBound {
 };
 
 struct Item {
+    // The fields every check and analysis reads come first, so that a pass over
+    // thousands of items touches few cache lines of each; the wording follows.
     QString name;
-    QString label;
-    QString text;
-    QString instruction;
     ItemType type = ItemType::Single;
+    bool hasInlineCodes = false;
     // Exactly one of these holds the codes: a shared list by name, or an inline list.
     QString codeListName;
     QList<Code> inlineCodes;
-    bool hasInlineCodes = false;
-    std::optional<std::pair<RangeBound, RangeBound>> range;
     QList<Code> missing; // extra missing codes of numeric items
     std::optional<QString> askIf;
     QList<Rule> routing;
+    std::optional<std::pair<RangeBound, RangeBound>> range;
     std::optional<WhenSkipped> whenSkipped;
+    QString label;
+    QString text;
+    QString instruction;
     QString notes;
     bool operator==(const Item&) const = default;
 };
