@@ -21,6 +21,8 @@ using namespace rb;
 class TestInstrument : public QObject {
     Q_OBJECT
 private slots:
+    void validItemName_data();
+    void validItemName();
     void sameName_data();
     void sameName();
     void firstInsertWins();
@@ -28,6 +30,35 @@ private slots:
     void itemIndexLookups();
     void compiledAtomsCarryTheirPositions();
 };
+
+// DESIGN.md's rule for names: `[A-Za-z][A-Za-z0-9_]*`, at most 32 characters,
+// not a keyword (keywords are lower case only) nor END in any case.
+void TestInstrument::validItemName_data() {
+    QTest::addColumn<QString>("name");
+    QTest::addColumn<bool>("valid");
+    QTest::newRow("one letter") << u"a"_s << true;
+    QTest::newRow("letters digits _") << u"Car_km2"_s << true;
+    QTest::newRow("32 characters") << QString(32, u'z') << true;
+    QTest::newRow("33 characters") << QString(33, u'z') << false;
+    QTest::newRow("empty") << QString() << false;
+    QTest::newRow("digit first") << u"2nd_bed"_s << false;
+    QTest::newRow("_ first") << u"_x"_s << false;
+    QTest::newRow("hyphen") << u"car-km"_s << false;
+    QTest::newRow("space") << u"car km"_s << false;
+    QTest::newRow("non-ASCII letter") << u"gr\u00f6\u00dfe"_s << false;
+    QTest::newRow("non-ASCII digit") << u"q\u0663"_s << false; // ARABIC-INDIC DIGIT THREE
+    QTest::newRow("keyword") << u"asked"_s << false;
+    QTest::newRow("keyword upper case is a name") << u"AND"_s << true;
+    QTest::newRow("END") << u"END"_s << false;
+    QTest::newRow("end any case") << u"eNd"_s << false;
+    QTest::newRow("longer than END") << u"ending"_s << true;
+}
+
+void TestInstrument::validItemName() {
+    QFETCH(QString, name);
+    QFETCH(bool, valid);
+    QCOMPARE(isValidItemName(name), valid);
+}
 
 void TestInstrument::sameName_data() {
     QTest::addColumn<QString>("a");
