@@ -4,7 +4,6 @@
 #include "condition/TypeCheck.h"
 #include "instrument/NameTable.h"
 
-#include <QSet>
 #include <QVarLengthArray>
 
 #include <algorithm>
@@ -182,10 +181,18 @@ void Checker::checkCodes(const QList<Code>& codes, const Place& place, const QSt
 
 void Checker::checkCodeLists() {
     const Instrument& instrument = m_routing.instrument();
-    QSet<QString> used;
-    for (const ItemIndex::Entry& e : m_index.entries())
-        if (!e.item->hasInlineCodes && !e.item->codeListName.isEmpty())
-            used.insert(e.item->codeListName.toLower());
+    // The lists items name (any case). Consecutive items mostly share a list, and
+    // a name equal to the last one needs no lookup; the table compares names
+    // ignoring case without making a lower-case copy per item.
+    NameTable used;
+    const QString* last = nullptr;
+    for (const ItemIndex::Entry& e : m_index.entries()) {
+        const QString& name = e.item->codeListName;
+        if (e.item->hasInlineCodes || name.isEmpty() || (last && name == *last))
+            continue;
+        used.insert(name, 0);
+        last = &name;
+    }
     for (const CodeList& list : instrument.codeLists) {
         Place place{nullptr, nullptr, -1, QStringLiteral("code_lists.%1").arg(list.name),
                     list.name};
@@ -194,7 +201,7 @@ void Checker::checkCodeLists() {
                 QStringLiteral("code list '%1' has no codes").arg(list.name));
         std::vector<qint64> seen;
         checkCodes(list.codes, place, place.field, seen);
-        if (!used.contains(list.name.toLower()))
+        if (used.value(list.name) < 0)
             add(place, QStringLiteral("unused-code-list"), Severity::Warning,
                 QStringLiteral("code list '%1' is used by no item").arg(list.name));
     }
