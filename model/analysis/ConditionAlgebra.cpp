@@ -221,23 +221,34 @@ void ConditionAlgebra::buildValueVar(int position, const ItemAtoms& atoms) {
     var.position = position;
     ValueCell empty;
     empty.empty = true;
-    empty.signature = signature(position, atoms, cond::CellValue::notPresented());
     var.cells.append(empty);
     // Cells by signature: an item compared with thousands of values has
     // thousands of pieces, so finding a piece's cell must not scan them all.
-    QHash<QList<bool>, int> cellOf{{empty.signature, 0}};
-    for (const ValuePiece& piece : candidatePieces(position, atoms)) {
+    QHash<QList<bool>, int> cellOf{
+        {signature(position, atoms, cond::CellValue::notPresented()), 0}};
+    QList<ValuePiece> candidates = candidatePieces(position, atoms);
+    std::vector<int> cellOfPiece;
+    cellOfPiece.reserve(std::size_t(candidates.size()));
+    for (const ValuePiece& piece : std::as_const(candidates)) {
         const QList<bool> sig = signature(position, atoms, piece.sample);
-        if (const auto same = cellOf.constFind(sig); same != cellOf.constEnd()) {
-            var.cells[*same].pieces.append(piece);
-            continue;
+        auto same = cellOf.constFind(sig);
+        if (same == cellOf.constEnd()) {
+            same = cellOf.insert(sig, int(var.cells.size()));
+            ValueCell cell;
+            cell.answered = sig.at(1);
+            var.cells.append(cell);
         }
-        cellOf.insert(sig, int(var.cells.size()));
-        ValueCell cell;
-        cell.answered = sig.at(1);
-        cell.pieces.append(piece);
-        cell.signature = sig;
-        var.cells.append(cell);
+        cellOfPiece.push_back(*same);
+        ++var.cells[*same].pieceCount;
+    }
+    // Lay the pieces out cell by cell, each cell's in the order found.
+    for (int c = 1; c < var.cells.size(); ++c)
+        var.cells[c].firstPiece = var.cells[c - 1].firstPiece + var.cells[c - 1].pieceCount;
+    std::vector<int> placed(std::size_t(var.cells.size()), 0);
+    var.pieces.resize(candidates.size());
+    for (qsizetype i = 0; i < candidates.size(); ++i) {
+        const int c = cellOfPiece[std::size_t(i)];
+        var.pieces[var.cells[c].firstPiece + placed[std::size_t(c)]++] = std::move(candidates[i]);
     }
     const int id = m_mdd.addVar(int(var.cells.size()));
     m_vars.append(var);
@@ -379,9 +390,9 @@ int ConditionAlgebra::atom(const cond::Expr& expr) {
     } else if (m_vars[vars[0]].role == DecisionVar::Role::Value) {
         const DecisionVar& var = m_vars[vars[0]];
         std::vector<bool> truth;
-        for (const ValueCell& cell : var.cells) {
+        for (int c = 0; c < var.cells.size(); ++c) {
             const cond::CellValue v =
-                cell.empty ? cond::CellValue::notPresented() : cell.pieces.first().sample;
+                var.cells[c].empty ? cond::CellValue::notPresented() : var.sampleOf(c);
             truth.push_back(cond::evaluate(expr, singleEnvironment(position, v)));
         }
         result = m_mdd.literal(vars[0], truth);
@@ -417,9 +428,13 @@ int ConditionAlgebra::valueCellOf(int var, const cond::CellValue& value) const {
     const DecisionVar& v = m_vars[var];
     if (!value.presented())
         return 0;
-    const QList<bool> sig = signature(v.position, m_atoms.value(v.position), value);
-    for (int c = 0; c < v.cells.size(); ++c)
-        if (v.cells[c].signature == sig)
+    // A cell's signature is that of any of its pieces (cells are made by
+    // signature); worked out again here rather than kept with every cell, as
+    // only replaying answers asks.
+    const ItemAtoms atoms = m_atoms.value(v.position);
+    const QList<bool> sig = signature(v.position, atoms, value);
+    for (int c = 1; c < v.cells.size(); ++c)
+        if (signature(v.position, atoms, v.sampleOf(c)) == sig)
             return c;
     return -1; // a value outside the item's domain (invalid data)
 }
@@ -457,7 +472,7 @@ cond::CellValue ConditionAlgebra::sampleValue(int position,
     if (cell == 0)
         return cond::CellValue::notPresented();
     if (first.role == DecisionVar::Role::Value)
-        return first.cells[cell].pieces.first().sample;
+        return first.sampleOf(cell);
     QList<qint64> chosen;
     for (int v : vars.mid(1))
         if (cellOfVar.at(v) == 1)

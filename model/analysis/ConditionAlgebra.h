@@ -7,6 +7,7 @@
 #include <QHash>
 #include <QList>
 
+#include <span>
 #include <vector>
 
 namespace rb::analysis {
@@ -27,8 +28,9 @@ struct ValuePiece {
 struct ValueCell {
     bool empty = false;
     bool answered = false; // presented and not a missing code / blank text
-    QList<ValuePiece> pieces;
-    QList<bool> signature; // truth of every atom on this item (value variables)
+    // Its pieces: DecisionVar::pieces[firstPiece, firstPiece + pieceCount).
+    int firstPiece = 0;
+    int pieceCount = 0;
 };
 
 // A decision variable. Ordinary items have one (their value); a `multi` item
@@ -40,6 +42,17 @@ struct DecisionVar {
     int position = -1;
     qint64 code = 0; // MultiHas
     QList<ValueCell> cells;
+    // Every cell's pieces, cell after cell, in one block per variable: a list
+    // per cell cost two allocations a cell, scattered over the heap, which
+    // printing universes and freeing the algebra then walked.
+    QList<ValuePiece> pieces;
+
+    std::span<const ValuePiece> piecesOf(int cell) const {
+        const ValueCell& c = cells[cell];
+        return {pieces.constData() + c.firstPiece, std::size_t(c.pieceCount)};
+    }
+    // A value of a presented cell (for evaluation).
+    const cond::CellValue& sampleOf(int cell) const { return piecesOf(cell).front().sample; }
 };
 
 // The canonical condition algebra of one instrument: every condition becomes a

@@ -41,7 +41,7 @@ struct TextUnit {
 QList<TextUnit> textUnits(const DecisionVar& var) {
     QList<std::pair<QString, TextUnit>> units;
     for (int c = 1; c < var.cells.size(); ++c)
-        for (const ValuePiece& p : var.cells[c].pieces) {
+        for (const ValuePiece& p : var.piecesOf(c)) {
             const bool point = p.kind == ValuePiece::Kind::Text;
             QString after = p.sample.text;
             if (!point)
@@ -105,7 +105,7 @@ QList<UniversePrinter::Segment> UniversePrinter::segmentsOf(const DecisionVar& v
     for (int c = 1; c < var.cells.size(); ++c) {
         if (!cells.test(c))
             continue;
-        for (const ValuePiece& p : var.cells[c].pieces) {
+        for (const ValuePiece& p : var.piecesOf(c)) {
             if (p.kind == ValuePiece::Kind::Text || p.kind == ValuePiece::Kind::OtherText)
                 onlyNumbers = false;
             else if (p.kind == ValuePiece::Kind::Interval)
@@ -154,7 +154,7 @@ std::optional<QString> UniversePrinter::valueList(const DecisionVar& var, const 
         for (int c = 1; c < var.cells.size(); ++c) {
             if (!cells.test(c))
                 continue;
-            for (const ValuePiece& p : var.cells[c].pieces) {
+            for (const ValuePiece& p : var.piecesOf(c)) {
                 if (p.kind != ValuePiece::Kind::Text)
                     return std::nullopt;
                 texts.append(quoted(p.text));
