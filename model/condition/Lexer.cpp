@@ -16,10 +16,39 @@ bool isNameChar(QChar c) {
     return isAsciiLetter(c) || isDigit(c) || c == u'_';
 }
 
-bool isKeywordSpelling(const QString& word) {
-    static const QStringList keywords = {u"and"_s,   u"or"_s,       u"not"_s,  u"in"_s,   u"has"_s,
-                                         u"asked"_s, u"answered"_s, u"true"_s, u"false"_s};
-    return keywords.contains(word); // case-sensitive on purpose: `AND` is a name
+// The keyword spelled so (case-sensitive on purpose: `AND` is a name), or null.
+const QString* keywordSpelled(QStringView word) {
+    static const QString keywords[] = {u"and"_s,   u"or"_s,       u"not"_s,  u"in"_s,   u"has"_s,
+                                       u"asked"_s, u"answered"_s, u"true"_s, u"false"_s};
+    for (const QString& k : keywords)
+        if (k == word)
+            return &k;
+    return nullptr;
+}
+
+// Punctuation and operators are spelled alike every time: a shared static
+// string each rather than a copy of the source per token (every condition of
+// an instrument is lexed whenever it is checked).
+QString punctuationSpelling(QStringView s) {
+    static const QString spellings[] = {u"("_s,  u")"_s, u","_s,  u"="_s, u"<>"_s,
+                                        u"<="_s, u"<"_s, u">="_s, u">"_s, u".."_s};
+    for (const QString& p : spellings)
+        if (p == s)
+            return p;
+    return s.toString();
+}
+
+// The value of a run of digits (with an optional leading '-') short enough
+// to be exact in a double; nullopt for longer ones (QString::toDouble then).
+std::optional<double> smallInteger(QStringView digits) {
+    const bool negative = digits.startsWith(u'-');
+    const QStringView body = negative ? digits.mid(1) : digits;
+    if (body.size() > 15)
+        return std::nullopt;
+    double value = 0;
+    for (QChar c : body)
+        value = value * 10 + (c.unicode() - u'0');
+    return negative ? -value : value;
 }
 
 // A hint for characters people often type from other languages.
@@ -44,6 +73,7 @@ public:
 
     LexResult run() {
         LexResult result;
+        result.tokens.reserve(m_text.size() / 3 + 2); // "q1 = 1" is 4 tokens in 6 characters
         while (!m_error) {
             skipSpace();
             if (m_pos >= m_text.size())
@@ -83,9 +113,28 @@ private:
     Token make(Token::Kind kind, qsizetype start, qsizetype length) {
         Token t;
         t.kind = kind;
-        t.text = m_text.mid(start, length);
         t.column = column(start);
         m_pos = start + length;
+        const QStringView spelling = QStringView(m_text).mid(start, length);
+        switch (kind) {
+        case Token::Kind::Name:
+            if (const QString* keyword = keywordSpelled(spelling)) {
+                t.kind = Token::Kind::Keyword;
+                t.text = *keyword;
+                return t;
+            }
+            break;
+        case Token::Kind::Op:
+        case Token::Kind::LParen:
+        case Token::Kind::RParen:
+        case Token::Kind::Comma:
+        case Token::Kind::DotDot:
+            t.text = punctuationSpelling(spelling);
+            return t;
+        default:
+            break;
+        }
+        t.text = spelling.toString();
         return t;
     }
 
@@ -104,10 +153,7 @@ private:
         qsizetype end = m_pos;
         while (end < m_text.size() && isNameChar(m_text.at(end)))
             ++end;
-        Token t = make(Token::Kind::Name, m_pos, end - m_pos);
-        if (isKeywordSpelling(t.text))
-            t.kind = Token::Kind::Keyword;
-        return t;
+        return make(Token::Kind::Name, m_pos, end - m_pos); // or a keyword
     }
 
     // integer := -?digits ; decimal := -?digits.digits ; "1..5" is 1 .. 5.
@@ -137,8 +183,10 @@ private:
             return {};
         }
         Token t = make(kind, start, i - start);
-        bool ok = false;
-        t.number = t.text.toDouble(&ok);
+        bool ok = true;
+        const std::optional<double> exact =
+            kind == Token::Kind::Integer ? smallInteger(t.text) : std::nullopt;
+        t.number = exact ? *exact : t.text.toDouble(&ok);
         if (!ok)
             fail(start, u"number '%1' is too large"_s.arg(t.text.left(40)));
         return t;

@@ -6,6 +6,7 @@
 #include "TreeGenerator.h"
 
 #include "condition/Evaluator.h"
+#include "condition/Lexer.h"
 #include "condition/Parser.h"
 #include "condition/Printer.h"
 #include "condition/TypeCheck.h"
@@ -14,6 +15,8 @@
 #include <QHash>
 #include <QSet>
 #include <QTest>
+
+#include <cmath>
 
 using namespace Qt::StringLiterals;
 using namespace rb;
@@ -115,6 +118,9 @@ private slots:
     void rejects_data();
     void rejects();
     void treeShapes();
+    void numberValues_data();
+    void numberValues();
+    void tokenSpellings();
     void columns();
     void sameTree();
     void printerParenthesizes_data();
@@ -315,6 +321,55 @@ void TestCondition::treeShapes() {
     QCOMPARE(in->list.at(1).high->number, 3.5);
     QCOMPARE(in->list.at(2).low.kind, Value::Kind::Text);
     QCOMPARE(in->list.at(2).low.text, u"a\"b"_s); // unescaped content
+}
+
+// The value of every number spelling, against QString::toDouble (Qt's own
+// C-locale conversion) as the reference: the lexer reads short integers digit
+// by digit and hands longer ones to toDouble.
+void TestCondition::numberValues_data() {
+    QTest::addColumn<QString>("spelling");
+    QTest::newRow("zero") << u"0"_s;
+    QTest::newRow("negative zero") << u"-0"_s;
+    QTest::newRow("leading zeros") << u"007"_s;
+    QTest::newRow("negative") << u"-42"_s;
+    QTest::newRow("15 digits") << u"999999999999999"_s;
+    QTest::newRow("16 digits") << u"1234567890123456"_s;
+    QTest::newRow("beyond 2^53") << u"9007199254740993"_s;
+    QTest::newRow("negative 20 digits") << u"-12345678901234567890"_s;
+    QTest::newRow("decimal") << u"12.25"_s;
+    QTest::newRow("negative decimal") << u"-0.1"_s;
+}
+
+void TestCondition::numberValues() {
+    QFETCH(QString, spelling);
+    ExprPtr compare = parsed(u"x = "_s + spelling);
+    QVERIFY(compare);
+    bool ok = false;
+    const double expected = spelling.toDouble(&ok);
+    QVERIFY(ok);
+    QCOMPARE(compare->value.number, expected);
+    QCOMPARE(std::signbit(compare->value.number), std::signbit(expected));
+    QCOMPARE(compare->value.text, spelling); // spelling kept as written
+}
+
+// Tokens keep their spelling (error messages quote it); keywords are lower
+// case only.
+void TestCondition::tokenSpellings() {
+    const LexResult lexed = lexCondition(u"(a<>1 or AND>=2..3),x<=y"_s);
+    QVERIFY(!lexed.error);
+    QStringList spellings;
+    QList<Token::Kind> kinds;
+    for (const Token& t : lexed.tokens) {
+        spellings.append(t.text);
+        kinds.append(t.kind);
+    }
+    using K = Token::Kind;
+    QCOMPARE(spellings,
+             (QStringList{u"("_s, u"a"_s, u"<>"_s, u"1"_s, u"or"_s, u"AND"_s, u">="_s, u"2"_s,
+                          u".."_s, u"3"_s, u")"_s, u","_s, u"x"_s, u"<="_s, u"y"_s, QString()}));
+    QCOMPARE(kinds, (QList<K>{K::LParen, K::Name, K::Op, K::Integer, K::Keyword, K::Name, K::Op,
+                              K::Integer, K::DotDot, K::Integer, K::RParen, K::Comma, K::Name,
+                              K::Op, K::Name, K::End}));
 }
 
 void TestCondition::columns() {
