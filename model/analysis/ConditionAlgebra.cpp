@@ -150,7 +150,9 @@ QList<bool> ConditionAlgebra::signature(int position, const ItemAtoms& atoms,
     const cond::Environment env = singleEnvironment(position, v);
     cond::Expr answered; // the environment answers for this item whatever the name
     answered.kind = cond::Expr::Kind::Answered;
-    QList<bool> sig{v.presented(), cond::evaluate(answered, env)};
+    QList<bool> sig;
+    sig.reserve(2 + atoms.atoms.size()); // grown a bool at a time, it reallocated per atom
+    sig << v.presented() << cond::evaluate(answered, env);
     for (const cond::Expr* a : atoms.atoms)
         sig.append(cond::evaluate(*a, env));
     return sig;
