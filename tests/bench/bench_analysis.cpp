@@ -15,12 +15,20 @@
 #include <QElapsedTimer>
 #include <QRandomGenerator>
 
+#include <sched.h>
+#include <spawn.h>
 #include <sys/resource.h>
+#include <sys/wait.h>
 #include <time.h>
+#include <unistd.h>
 
 #include <algorithm>
 #include <cstdio>
+#include <cstdlib>
+#include <cstring>
 #include <memory>
+#include <string>
+#include <vector>
 
 using namespace rb;
 using namespace Qt::StringLiterals;
@@ -121,9 +129,47 @@ double cpuMilliseconds() {
 struct Runs {
     QList<double> wall, cpu;
 };
-template <typename Work> Runs fiveRuns(Work work) {
+// Writes a buffer larger than the machine's caches (the VM reports a 480 MiB
+// L3), so that the next run starts with nothing of the last one cached, as a
+// single `routebook check` does. Back-to-back runs otherwise keep a small
+// instrument's whole working set cached from run to run, which a large one
+// cannot be: the warm figures then compare cached with uncached work.
+// A fresh process (this program again, started with --evict-caches CPU) on
+// this process's core does the writing: caches are shared by physical
+// address, and the buffer then never counts in our peak RSS. posix_spawn,
+// unlike fork, leaves our pages as they are (no copy-on-write faults after).
+int evictInThisProcess(int cpu) {
+    cpu_set_t set;
+    CPU_ZERO(&set);
+    CPU_SET(cpu, &set);
+    sched_setaffinity(0, sizeof set, &set);
+    std::vector<unsigned char> buffer(std::size_t(1) << 30);
+    std::memset(buffer.data(), 1, buffer.size());
+    return buffer[buffer.size() / 2] == 1 ? 0 : 1;
+}
+
+const char* g_self = nullptr;
+
+void evictCaches() {
+    std::string cpu = std::to_string(sched_getcpu());
+    char option[] = "--evict-caches";
+    char* argv[] = {const_cast<char*>(g_self), option, cpu.data(), nullptr};
+    pid_t child = 0;
+    if (posix_spawn(&child, g_self, nullptr, nullptr, argv, environ) != 0) {
+        std::fprintf(stderr, "cannot start %s to empty the caches\n", g_self);
+        std::exit(1);
+    }
+    int status = 0;
+    waitpid(child, &status, 0);
+}
+
+enum class Caches { Warm, Evicted };
+
+template <typename Work> Runs fiveRuns(Work work, Caches caches = Caches::Warm) {
     Runs runs;
     for (int run = 0; run < 5; ++run) {
+        if (caches == Caches::Evicted)
+            evictCaches();
         QElapsedTimer timer;
         timer.start();
         const double cpu = cpuMilliseconds();
@@ -139,13 +185,16 @@ template <typename Work> Runs fiveRuns(Work work) {
 } // namespace
 
 int main(int argc, char** argv) {
+    if (argc == 3 && std::strcmp(argv[1], "--evict-caches") == 0)
+        return evictInThisProcess(std::atoi(argv[2]));
+    g_self = "/proc/self/exe";
     QCoreApplication app(argc, argv);
     QList<int> sizes;
     for (int i = 1; i < argc; ++i)
         sizes.append(QString::fromUtf8(argv[i]).toInt());
     if (sizes.isEmpty())
         sizes = {500, 5000, 50000};
-    double previous = 0, previousAnalysis = 0, previousCpu = 0;
+    double previous = 0, previousAnalysis = 0, previousCpu = 0, previousCold = 0;
     for (int size : sizes) {
         const Instrument ins = generate(size, 4242);
         int conditional = 0, findings = 0;
@@ -153,6 +202,13 @@ int main(int argc, char** argv) {
             const CompiledRouting routing(ins);
             findings = int(checkInstrument(routing).size());
         });
+        // The same with the caches emptied before each run.
+        const Runs coldRuns = fiveRuns(
+            [&] {
+                const CompiledRouting routing(ins);
+                checkInstrument(routing);
+            },
+            Caches::Evicted);
         // The routing analysis alone (what this benchmark timed before it took the full check).
         const Runs analysisRuns = fiveRuns([&] {
             const CompiledRouting routing(ins);
@@ -201,6 +257,12 @@ int main(int argc, char** argv) {
         std::printf("\n        full check CPU time: median %.1f ms", cpu);
         if (previousCpu > 0)
             std::printf(", growth x%.1f", cpu / previousCpu);
+        const double cold = coldRuns.wall.at(2);
+        std::printf("\n        full check, caches emptied before each run: median %.1f ms (min "
+                    "%.1f, max %.1f)",
+                    cold, coldRuns.wall.first(), coldRuns.wall.last());
+        if (previousCold > 0)
+            std::printf(", growth x%.1f", cold / previousCold);
         std::printf("\n%6d items: full check median %9.1f ms (min %.1f, max %.1f), %d conditional, "
                     "%d findings, peak RSS %ld MB",
                     size, median, runs.wall.first(), runs.wall.last(), conditional, findings,
@@ -212,6 +274,7 @@ int main(int argc, char** argv) {
         previous = median;
         previousAnalysis = analysisMedian;
         previousCpu = cpu;
+        previousCold = cold;
     }
     return 0;
 }
