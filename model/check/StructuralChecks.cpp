@@ -39,10 +39,23 @@ public:
         : m_routing(routing), m_index(routing.index()) {}
 
     Findings run() {
-        checkNames();
+        const Instrument& instrument = m_routing.instrument();
+        m_names.reserve(m_index.size() + instrument.modules.size());
+        m_claimants.reserve(m_index.size() + instrument.modules.size());
+        // One pass over the items for every per-item check: on a large
+        // instrument each further pass read every item from memory again.
+        // (Callers sort the findings, so the order they are found in is free.)
+        int position = 0;
+        for (const Module& module : instrument.modules) {
+            claimModuleName(module);
+            for (qsizetype i = 0; i < module.items.size(); ++i) {
+                const ItemIndex::Entry& entry = m_index.at(position++);
+                claimItemNames(entry);
+                noteCodeListUse(*entry.item);
+                checkItem(entry);
+            }
+        }
         checkCodeLists();
-        for (const ItemIndex::Entry& entry : m_index.entries())
-            checkItem(entry);
         checkModules();
         return m_findings;
     }
@@ -70,7 +83,10 @@ private:
     // Position of a module: that of its first item, or of whatever follows it.
     int modulePosition(const Module& module) const { return m_index.modulePosition(module.name); }
 
-    void checkNames();
+    // Names are claimed in questionnaire order: a module before its items, an
+    // item before its multi variables.
+    void claimModuleName(const Module& module);
+    void claimItemNames(const ItemIndex::Entry& entry);
     // Who holds a name; worded only when a duplicate needs the message (every
     // item claims one, so building the words up front cost a string apiece).
     // The names by address (the instrument's, or m_variableNames's): a copy
@@ -82,6 +98,7 @@ private:
         QString words() const;
     };
     void claimName(const QString& name, const Place& place, const Claimant& who);
+    void noteCodeListUse(const Item& item);
     void checkCodeLists();
     // Reports codes already in `seen` (kept sorted) and adds the others to it.
     void checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
@@ -106,6 +123,8 @@ private:
     QList<Claimant> m_claimants;
     std::deque<QString> m_variableNames; // multi items' variables (addresses stay put)
     std::vector<qint64> m_seen;          // checkItemCodes's codes so far, reused from item to item
+    NameTable m_usedLists;               // code lists that items name (any case)
+    const QString* m_lastList = nullptr; // the list name noted last
 };
 
 QString Checker::Claimant::words() const {
@@ -133,34 +152,30 @@ void Checker::claimName(const QString& name, const Place& place, const Claimant&
     m_claimants.append(who);
 }
 
-void Checker::checkNames() {
-    const Instrument& instrument = m_routing.instrument();
-    int position = 0; // flat position of the next item
-    m_names.reserve(m_index.size() + instrument.modules.size());
-    m_claimants.reserve(m_index.size() + instrument.modules.size());
-    for (const Module& module : instrument.modules) {
-        const Place place{nullptr, &module, modulePosition(module), QStringLiteral("name"), {}};
-        if (!isValidItemName(module.name))
-            add(place, QStringLiteral("invalid-name"), Severity::Error,
-                QStringLiteral("module name '%1' is not a valid name (a letter, then letters, "
-                               "digits or _, at most 32, not a keyword nor END)")
-                    .arg(module.name));
-        claimName(module.name, place, {Claimant::Kind::Module, &module.name});
-        for (const Item& item : module.items) {
-            const Place ip{&item, &module, position++, QStringLiteral("name"), {}};
-            if (!isValidItemName(item.name))
-                add(ip, QStringLiteral("invalid-name"), Severity::Error,
-                    QStringLiteral("item name '%1' is not a valid name (a letter, then letters, "
-                                   "digits or _, at most 32, not a keyword nor END)")
-                        .arg(item.name));
-            claimName(item.name, ip, {Claimant::Kind::Item, &item.name});
-            if (item.type == ItemType::Multi)
-                for (const QString& variable : multiVariableNames(instrument, item)) {
-                    const QString& kept = m_variableNames.emplace_back(variable);
-                    claimName(kept, ip, {Claimant::Kind::Variable, &kept, &item.name});
-                }
+void Checker::claimModuleName(const Module& module) {
+    const Place place{nullptr, &module, modulePosition(module), QStringLiteral("name"), {}};
+    if (!isValidItemName(module.name))
+        add(place, QStringLiteral("invalid-name"), Severity::Error,
+            QStringLiteral("module name '%1' is not a valid name (a letter, then letters, "
+                           "digits or _, at most 32, not a keyword nor END)")
+                .arg(module.name));
+    claimName(module.name, place, {Claimant::Kind::Module, &module.name});
+}
+
+void Checker::claimItemNames(const ItemIndex::Entry& e) {
+    const Item& item = *e.item;
+    const Place ip = itemPlace(e, QStringLiteral("name"));
+    if (!isValidItemName(item.name))
+        add(ip, QStringLiteral("invalid-name"), Severity::Error,
+            QStringLiteral("item name '%1' is not a valid name (a letter, then letters, "
+                           "digits or _, at most 32, not a keyword nor END)")
+                .arg(item.name));
+    claimName(item.name, ip, {Claimant::Kind::Item, &item.name});
+    if (item.type == ItemType::Multi)
+        for (const QString& variable : multiVariableNames(m_routing.instrument(), item)) {
+            const QString& kept = m_variableNames.emplace_back(variable);
+            claimName(kept, ip, {Claimant::Kind::Variable, &kept, &item.name});
         }
-    }
 }
 
 void Checker::checkCodes(const QList<Code>& codes, const Place& place, const QString& fieldPrefix,
@@ -179,20 +194,19 @@ void Checker::checkCodes(const QList<Code>& codes, const Place& place, const QSt
     }
 }
 
+void Checker::noteCodeListUse(const Item& item) {
+    // Consecutive items mostly share a list, and a name equal to the last one
+    // needs no lookup; the table compares names ignoring case without making a
+    // lower-case copy per item.
+    const QString& name = item.codeListName;
+    if (item.hasInlineCodes || name.isEmpty() || (m_lastList && name == *m_lastList))
+        return;
+    m_usedLists.insert(name, 0);
+    m_lastList = &name;
+}
+
 void Checker::checkCodeLists() {
     const Instrument& instrument = m_routing.instrument();
-    // The lists items name (any case). Consecutive items mostly share a list, and
-    // a name equal to the last one needs no lookup; the table compares names
-    // ignoring case without making a lower-case copy per item.
-    NameTable used;
-    const QString* last = nullptr;
-    for (const ItemIndex::Entry& e : m_index.entries()) {
-        const QString& name = e.item->codeListName;
-        if (e.item->hasInlineCodes || name.isEmpty() || (last && name == *last))
-            continue;
-        used.insert(name, 0);
-        last = &name;
-    }
     for (const CodeList& list : instrument.codeLists) {
         Place place{nullptr, nullptr, -1, QStringLiteral("code_lists.%1").arg(list.name),
                     list.name};
@@ -201,7 +215,7 @@ void Checker::checkCodeLists() {
                 QStringLiteral("code list '%1' has no codes").arg(list.name));
         std::vector<qint64> seen;
         checkCodes(list.codes, place, place.field, seen);
-        if (used.value(list.name) < 0)
+        if (m_usedLists.value(list.name) < 0)
             add(place, QStringLiteral("unused-code-list"), Severity::Warning,
                 QStringLiteral("code list '%1' is used by no item").arg(list.name));
     }
