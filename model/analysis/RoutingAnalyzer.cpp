@@ -75,10 +75,12 @@ void RoutingAnalyzer::run() {
     m_loose.assign(n, Mdd::False);
     m_looseReached.assign(n, Mdd::False);
     m_filter.assign(n, Mdd::True);
-    m_rules.assign(n, {});
-    m_ruleCondition.assign(n, {});
+    m_ruleSets.clear();
+    m_firstRule.assign(n + 1, 0);
     m_feasible = Digraph();
+    m_structural = Digraph();
     for (int i = 0; i < n; ++i) {
+        addStructuralEdges(i);
         const int r = pending[i], lr = loosePending[i];
         const int filter = filterNode(i);
         m_reached[i] = r;
@@ -94,12 +96,13 @@ void RoutingAnalyzer::run() {
         if (passed != Mdd::False)
             m_feasible.addEdge(i + 1);
         int rest = shown, looseRest = looseShown;
+        m_firstRule[i] = int(m_ruleSets.size());
         for (const CompiledRouting::CompiledRule& rule : m_routing.item(i).rules) {
             RuleSets sets;
             sets.usable = rule.usable;
-            int c = Mdd::False;
             if (rule.usable) {
-                c = rule.condition ? m_algebra.conditionAt(*rule.condition, i + 1) : Mdd::True;
+                const int c =
+                    rule.condition ? m_algebra.conditionAt(*rule.condition, i + 1) : Mdd::True;
                 sets.evaluated = rest;
                 sets.fired = mdd.andOp(rest, c);
                 const int looseFired = mdd.andOp(looseRest, c);
@@ -113,8 +116,7 @@ void RoutingAnalyzer::run() {
                     loosePending[t] = mdd.orOp(loosePending[t], looseFired);
                 }
             }
-            m_rules[i].push_back(sets);
-            m_ruleCondition[i].push_back(c);
+            m_ruleSets.push_back(sets);
         }
         pending[i + 1] = mdd.orOp(pending[i + 1], rest);
         loosePending[i + 1] = mdd.orOp(loosePending[i + 1], looseRest);
@@ -123,6 +125,8 @@ void RoutingAnalyzer::run() {
         m_feasible.closeVertex();
     }
     m_feasible.closeVertex(); // END
+    m_structural.closeVertex();
+    m_firstRule[n] = int(m_ruleSets.size());
 }
 
 QList<int> RoutingAnalyzer::positionsOf(const std::vector<int>& vars) const {
@@ -293,29 +297,29 @@ void RoutingAnalyzer::findLoops() {
     }
 }
 
-std::vector<bool> RoutingAnalyzer::structurallyReachable() const {
-    const int n = m_routing.itemCount();
-    Digraph graph;
-    for (int i = 0; i < n; ++i) {
-        const CompiledRouting::CompiledItem& item = m_routing.item(i);
-        if (!item.filters.isEmpty())
-            graph.addEdge(i + 1);
-        bool unconditional = false;
-        for (const CompiledRouting::CompiledRule& rule : item.rules) {
-            if (!rule.usable)
-                continue;
-            graph.addEdge(rule.target);
-            if (!rule.condition) {
-                unconditional = true;
-                break;
-            }
+// Every usable edge of an item, feasible or not, for unreachable-item's
+// wording; added while run() has the item's rules at hand.
+void RoutingAnalyzer::addStructuralEdges(int position) {
+    const CompiledRouting::CompiledItem& item = m_routing.item(position);
+    if (!item.filters.isEmpty())
+        m_structural.addEdge(position + 1);
+    bool unconditional = false;
+    for (const CompiledRouting::CompiledRule& rule : item.rules) {
+        if (!rule.usable)
+            continue;
+        m_structural.addEdge(rule.target);
+        if (!rule.condition) {
+            unconditional = true;
+            break;
         }
-        if (!unconditional)
-            graph.addEdge(i + 1);
-        graph.closeVertex();
     }
-    graph.closeVertex(); // END
-    return n > 0 ? reachableFrom(graph, 0) : std::vector<bool>(1, true);
+    if (!unconditional)
+        m_structural.addEdge(position + 1);
+    m_structural.closeVertex();
+}
+
+std::vector<bool> RoutingAnalyzer::structurallyReachable() const {
+    return m_routing.itemCount() > 0 ? reachableFrom(m_structural, 0) : std::vector<bool>(1, true);
 }
 
 Finding RoutingAnalyzer::makeFinding(const QString& check, Severity severity, int position,
@@ -345,7 +349,7 @@ void RoutingAnalyzer::addLoopFindings(Findings& out) const {
             for (; k < rules.size(); ++k)
                 if (rules[k].usable && rules[k].target <= p &&
                     std::binary_search(loop.begin(), loop.end(), rules[k].target) &&
-                    m_rules[p][k].fired != Mdd::False)
+                    ruleSets(p, k).fired != Mdd::False)
                     break;
             if (k == rules.size())
                 continue;
@@ -389,7 +393,7 @@ void RoutingAnalyzer::addRuleFindings(Findings& out) {
             return u" (if "_s + *written(k).condition + u" go to "_s + written(k).target + u')';
         };
         for (int k = 0; k < rules.size(); ++k) {
-            const RuleSets& sets = m_rules[i][k];
+            const RuleSets& sets = ruleSets(i, k);
             if (!sets.usable || sets.evaluated == Mdd::False)
                 continue;
             const bool hasIf = rules[k].condition != nullptr;
@@ -531,7 +535,7 @@ void RoutingAnalyzer::addUnaskedReads(Findings& out) {
         for (int k = 0; k < compiled.rules.size(); ++k) {
             const CompiledRouting::CompiledRule& rule = compiled.rules.at(k);
             if (rule.usable && rule.condition)
-                sites.append({rule.condition.get(), i, m_rules[i][k].evaluated, k, false, i});
+                sites.append({rule.condition.get(), i, ruleSets(i, k).evaluated, k, false, i});
         }
     }
     for (const Site& site : sites) {

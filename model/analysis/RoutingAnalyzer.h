@@ -54,6 +54,7 @@ private:
     QList<int> positionsOf(const std::vector<int>& vars) const;
     void preferShorterForms(Sop& sop, int on, const UniversePrinter& printer);
     void findLoops();
+    void addStructuralEdges(int position);
     std::vector<bool> structurallyReachable() const;
     void addLoopFindings(Findings& out) const;
     void addUnreachable(Findings& out, const std::vector<bool>& reachable) const;
@@ -66,9 +67,13 @@ private:
     const CompiledRouting& m_routing;
     ConditionAlgebra m_algebra;
     std::vector<int> m_reached, m_presented, m_loose, m_looseReached, m_filter;
-    std::vector<std::vector<RuleSets>> m_rules;
-    std::vector<std::vector<int>> m_ruleCondition; // per rule: its condition; false if unusable
-    Digraph m_feasible; // feasible edges per position (and END, the last vertex)
+    // Every item's rules' sets, item after item (one block rather than a
+    // vector per item with rules): rule k of item i is m_ruleSets[m_firstRule[i] + k].
+    std::vector<RuleSets> m_ruleSets;
+    std::vector<int> m_firstRule;
+    const RuleSets& ruleSets(int item, int k) const { return m_ruleSets[m_firstRule[item] + k]; }
+    Digraph m_feasible;   // feasible edges per position (and END, the last vertex)
+    Digraph m_structural; // every usable edge, feasible or not
     std::vector<std::vector<int>> m_loops;
     std::vector<bool> m_inLoop;
     std::vector<int> m_consistency;    // per position, -1 until asked for
