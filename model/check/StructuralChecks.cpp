@@ -49,6 +49,8 @@ public:
         for (const Module& module : instrument.modules) {
             claimModuleName(module);
             for (qsizetype i = 0; i < module.items.size(); ++i) {
+                if (position + NameTable::PrefetchDistance < m_index.size())
+                    m_names.prefetch(m_index.at(position + NameTable::PrefetchDistance).item->name);
                 const ItemIndex::Entry& entry = m_index.at(position++);
                 claimItemNames(entry);
                 noteCodeListUse(*entry.item);

@@ -83,13 +83,16 @@ ItemIndex::ItemIndex(const Instrument& instrument) {
         const Module& module = instrument.modules.at(m);
         // An empty module's goto lands on whatever follows it.
         m_moduleFirst.insert(module.name, position);
-        for (const Item& item : module.items) {
-            m_entries.append({&item, &module, m, position});
-            // Duplicate names: keep the first occurrence (a duplicate-name finding reports the
-            // rest).
-            m_byName.insert(item.name, position);
-            ++position;
-        }
+        for (const Item& item : module.items)
+            m_entries.append({&item, &module, m, position++});
+    }
+    // Duplicate names: keep the first occurrence (a duplicate-name finding
+    // reports the rest).
+    constexpr int ahead = NameTable::PrefetchDistance;
+    for (qsizetype i = 0; i < m_entries.size(); ++i) {
+        if (i + ahead < m_entries.size())
+            m_byName.prefetch(m_entries[i + ahead].item->name);
+        m_byName.insert(m_entries[i].item->name, int(i));
     }
 }
 

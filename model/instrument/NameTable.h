@@ -21,6 +21,14 @@ public:
     // Adds name -> value unless a name equal ignoring case is present; returns
     // the value now held for the name (the earlier one when it was present).
     int insert(const QString& name, int value);
+    // Asks the memory for the slot `name` hashes to. In a table of tens of
+    // thousands of names each slot is a cache miss; a caller inserting names
+    // in a loop prefetches a few names ahead, so the misses overlap.
+    void prefetch(QStringView name) const {
+        __builtin_prefetch(&m_slots[hashName(name) & (m_slots.size() - 1)], 1);
+    }
+    // Names a caller inserting in a loop prefetches ahead of the one it inserts.
+    static constexpr int PrefetchDistance = 8;
     // The value for the name (any case), or `absent`.
     int value(const QString& name, int absent = -1) const;
     qsizetype size() const { return m_size; }
