@@ -155,7 +155,7 @@ void evictCaches() {
     char option[] = "--evict-caches";
     char* argv[] = {const_cast<char*>(g_self), option, cpu.data(), nullptr};
     pid_t child = 0;
-    if (posix_spawn(&child, g_self, nullptr, nullptr, argv, environ) != 0) {
+    if (posix_spawnp(&child, g_self, nullptr, nullptr, argv, environ) != 0) {
         std::fprintf(stderr, "cannot start %s to empty the caches\n", g_self);
         std::exit(1);
     }
@@ -187,7 +187,7 @@ template <typename Work> Runs fiveRuns(Work work, Caches caches = Caches::Warm) 
 int main(int argc, char** argv) {
     if (argc == 3 && std::strcmp(argv[1], "--evict-caches") == 0)
         return evictInThisProcess(std::atoi(argv[2]));
-    g_self = "/proc/self/exe";
+    g_self = argv[0]; // as started (not /proc/self/exe, which under valgrind is valgrind)
     QCoreApplication app(argc, argv);
     QList<int> sizes;
     for (int i = 1; i < argc; ++i)
