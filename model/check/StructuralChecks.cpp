@@ -87,6 +87,7 @@ private:
 
     // Names are claimed in questionnaire order: a module before its items, an
     // item before its multi variables.
+    void checkNameIsValid(const QString& name, const Place& place, const QString& whose);
     void claimModuleName(const Module& module);
     void claimItemNames(const ItemIndex::Entry& entry);
     // Who holds a name; worded only when a duplicate needs the message (every
@@ -154,24 +155,24 @@ void Checker::claimName(const QString& name, const Place& place, const Claimant&
     m_claimants.append(who);
 }
 
+void Checker::checkNameIsValid(const QString& name, const Place& place, const QString& whose) {
+    if (!isValidItemName(name))
+        add(place, QStringLiteral("invalid-name"), Severity::Error,
+            QStringLiteral("%1 name '%2' is not a valid name (a letter, then letters, digits or _, "
+                           "at most 32, not a keyword nor END)")
+                .arg(whose, name));
+}
+
 void Checker::claimModuleName(const Module& module) {
     const Place place{nullptr, &module, modulePosition(module), QStringLiteral("name"), {}};
-    if (!isValidItemName(module.name))
-        add(place, QStringLiteral("invalid-name"), Severity::Error,
-            QStringLiteral("module name '%1' is not a valid name (a letter, then letters, "
-                           "digits or _, at most 32, not a keyword nor END)")
-                .arg(module.name));
+    checkNameIsValid(module.name, place, QStringLiteral("module"));
     claimName(module.name, place, {Claimant::Kind::Module, &module.name});
 }
 
 void Checker::claimItemNames(const ItemIndex::Entry& e) {
     const Item& item = *e.item;
     const Place ip = itemPlace(e, QStringLiteral("name"));
-    if (!isValidItemName(item.name))
-        add(ip, QStringLiteral("invalid-name"), Severity::Error,
-            QStringLiteral("item name '%1' is not a valid name (a letter, then letters, "
-                           "digits or _, at most 32, not a keyword nor END)")
-                .arg(item.name));
+    checkNameIsValid(item.name, ip, QStringLiteral("item"));
     claimName(item.name, ip, {Claimant::Kind::Item, &item.name});
     if (item.type == ItemType::Multi)
         for (const QString& variable : multiVariableNames(m_routing.instrument(), item)) {
