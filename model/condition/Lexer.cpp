@@ -1,30 +1,12 @@
 #include "Lexer.h"
 
+#include "Spelling.h"
+
 using namespace Qt::StringLiterals;
 
 namespace rb::cond {
 
 namespace {
-
-bool isAsciiLetter(QChar c) {
-    return (c >= u'a' && c <= u'z') || (c >= u'A' && c <= u'Z');
-}
-bool isDigit(QChar c) {
-    return c >= u'0' && c <= u'9';
-}
-bool isNameChar(QChar c) {
-    return isAsciiLetter(c) || isDigit(c) || c == u'_';
-}
-
-// The keyword spelled so (case-sensitive on purpose: `AND` is a name), or null.
-const QString* keywordSpelled(QStringView word) {
-    static const QString keywords[] = {u"and"_s,   u"or"_s,       u"not"_s,  u"in"_s,   u"has"_s,
-                                       u"asked"_s, u"answered"_s, u"true"_s, u"false"_s};
-    for (const QString& k : keywords)
-        if (k == word)
-            return &k;
-    return nullptr;
-}
 
 // Punctuation and operators are spelled alike every time: a shared static
 // string each rather than a copy of the source per token (every condition of
@@ -142,7 +124,7 @@ private:
         const QChar c = m_text.at(m_pos);
         if (isAsciiLetter(c))
             return name();
-        if (isDigit(c) || c == u'-')
+        if (isAsciiDigit(c) || c == u'-')
             return number();
         if (c == u'"')
             return textLiteral();
@@ -162,17 +144,17 @@ private:
         qsizetype i = start;
         if (at(i) == u'-')
             ++i;
-        if (!isDigit(at(i))) {
+        if (!isAsciiDigit(at(i))) {
             fail(start, u"expected a digit after '-' (a negative number is written -3)"_s);
             return {};
         }
-        while (isDigit(at(i)))
+        while (isAsciiDigit(at(i)))
             ++i;
         Token::Kind kind = Token::Kind::Integer;
-        if (at(i) == u'.' && isDigit(at(i + 1))) {
+        if (at(i) == u'.' && isAsciiDigit(at(i + 1))) {
             kind = Token::Kind::Decimal;
             i += 1;
-            while (isDigit(at(i)))
+            while (isAsciiDigit(at(i)))
                 ++i;
         } else if (at(i) == u'.' && at(i + 1) != u'.') {
             fail(i + 1, u"expected digits after the decimal point"_s);

@@ -1,5 +1,7 @@
 #include "Instrument.h"
 
+#include "condition/Spelling.h"
+
 #include <algorithm>
 
 namespace rb {
@@ -121,28 +123,14 @@ QStringList multiVariableNames(const Instrument& instrument, const Item& item) {
 }
 
 bool isConditionKeyword(const QString& word) {
-    static const QStringList keywords = {
-        QStringLiteral("and"),      QStringLiteral("or"),   QStringLiteral("not"),
-        QStringLiteral("in"),       QStringLiteral("has"),  QStringLiteral("asked"),
-        QStringLiteral("answered"), QStringLiteral("true"), QStringLiteral("false")};
-    return keywords.contains(word);
+    return cond::keywordSpelled(word) != nullptr;
 }
-
-namespace {
-bool isAsciiLetter(char16_t c) {
-    return (c >= u'A' && c <= u'Z') || (c >= u'a' && c <= u'z');
-}
-bool isNameChar(QChar c) {
-    const char16_t u = c.unicode();
-    return isAsciiLetter(u) || (u >= u'0' && u <= u'9') || u == u'_';
-}
-} // namespace
 
 bool isValidItemName(const QString& name) {
     // A letter, then letters, digits or _: by hand, since every check runs this
     // on every name and a regular expression match cost ~2,000 instructions each.
-    if (name.isEmpty() || name.size() > 32 || !isAsciiLetter(name.front().unicode()) ||
-        !std::all_of(name.cbegin() + 1, name.cend(), isNameChar))
+    if (name.isEmpty() || name.size() > 32 || !cond::isAsciiLetter(name.front()) ||
+        !std::all_of(name.cbegin() + 1, name.cend(), cond::isNameChar))
         return false;
     return !isConditionKeyword(name) &&
            name.compare(QLatin1String("END"), Qt::CaseInsensitive) != 0;
