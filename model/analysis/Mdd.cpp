@@ -220,7 +220,12 @@ std::vector<int> Mdd::support(int f) const {
     if (m_varStamp.size() < m_domains.size())
         m_varStamp.resize(m_domains.size() * 2 + 1, 0);
     const std::uint32_t generation = ++m_generation;
-    std::vector<int> vars, stack{f};
+    // The walk's stack is kept between calls (support is asked some ten times
+    // per item): a fresh one cost its allocation and regrowth every time.
+    std::vector<int>& stack = m_walk;
+    stack.assign(1, f);
+    std::vector<int> vars;
+    vars.reserve(8);
     while (!stack.empty()) {
         const int n = stack.back();
         stack.pop_back();

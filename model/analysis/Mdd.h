@@ -86,6 +86,7 @@ private:
     std::vector<CacheEntry, HugePageAllocator<CacheEntry>> m_cache; // lossy, direct mapped
     mutable std::vector<std::uint32_t> m_stamp, m_varStamp;         // visit marks for support()
     mutable std::uint32_t m_generation = 0;
+    mutable std::vector<int> m_walk; // support()'s stack, kept for its capacity
 };
 
 } // namespace rb::analysis
