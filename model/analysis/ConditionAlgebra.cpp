@@ -35,16 +35,15 @@ void textsOf(const cond::Expr& atom, QStringList& out) {
 ValuePiece numberPiece(ValuePiece::Kind kind, double value) {
     ValuePiece p;
     p.kind = kind;
-    p.low = p.high = value;
-    p.sample = cond::CellValue::ofNumber(value);
+    p.low = p.high = p.sample = value;
     return p;
 }
 
-ValuePiece textPiece(ValuePiece::Kind kind, const QString& text) {
+ValuePiece textPiece(ValuePiece::Kind kind, const QString& text, QStringList& texts) {
     ValuePiece p;
     p.kind = kind;
-    p.text = text;
-    p.sample = cond::CellValue::ofText(text);
+    p.text = int(texts.size());
+    texts.append(text);
     return p;
 }
 
@@ -158,7 +157,8 @@ QList<bool> ConditionAlgebra::signature(int position, const ItemAtoms& atoms,
     return sig;
 }
 
-QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtoms& atoms) const {
+QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtoms& atoms,
+                                                    QStringList& texts) const {
     const Item& item = *m_routing->index().at(position).item;
     QList<ValuePiece> pieces;
     if (item.type == ItemType::Single) {
@@ -208,12 +208,12 @@ QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtom
         textsOf(*a, literals);
     literals.sort();
     literals.removeDuplicates();
-    pieces.append(textPiece(ValuePiece::Kind::Text, QString()));
-    pieces.append(textPiece(ValuePiece::Kind::OtherText, QString(QChar(1))));
+    pieces.append(textPiece(ValuePiece::Kind::Text, QString(), texts));
+    pieces.append(textPiece(ValuePiece::Kind::OtherText, QString(QChar(1)), texts));
     for (const QString& l : literals) {
         if (!l.isEmpty())
-            pieces.append(textPiece(ValuePiece::Kind::Text, l));
-        pieces.append(textPiece(ValuePiece::Kind::OtherText, l + QChar(1)));
+            pieces.append(textPiece(ValuePiece::Kind::Text, l, texts));
+        pieces.append(textPiece(ValuePiece::Kind::OtherText, l + QChar(1), texts));
     }
     return pieces;
 }
@@ -228,11 +228,11 @@ void ConditionAlgebra::buildValueVar(int position, const ItemAtoms& atoms) {
     // thousands of pieces, so finding a piece's cell must not scan them all.
     QHash<QList<bool>, int> cellOf{
         {signature(position, atoms, cond::CellValue::notPresented()), 0}};
-    QList<ValuePiece> candidates = candidatePieces(position, atoms);
+    QList<ValuePiece> candidates = candidatePieces(position, atoms, var.texts);
     std::vector<int> cellOfPiece;
     cellOfPiece.reserve(std::size_t(candidates.size()));
     for (const ValuePiece& piece : std::as_const(candidates)) {
-        const QList<bool> sig = signature(position, atoms, piece.sample);
+        const QList<bool> sig = signature(position, atoms, var.valueOf(piece));
         auto same = cellOf.constFind(sig);
         if (same == cellOf.constEnd()) {
             same = cellOf.insert(sig, int(var.cells.size()));

@@ -7,6 +7,7 @@
 #include <QHash>
 #include <QList>
 
+#include <cstdint>
 #include <span>
 #include <vector>
 
@@ -14,13 +15,17 @@ namespace rb::analysis {
 
 // One piece of an item's value set, kept so that a set of cells can be printed
 // back exactly: a code, a number, an interval of numbers, a text value, or
-// "any other text".
+// "any other text". Plain data (a text piece's string sits in its variable's
+// `texts`): an instrument's pieces run to megabytes, and pieces that own
+// strings made building, printing and freeing them walk twice the memory.
 struct ValuePiece {
-    enum class Kind { Code, Point, Interval, Text, OtherText };
+    enum class Kind : std::uint8_t { Code, Point, Interval, Text, OtherText };
     Kind kind = Kind::Point;
-    double low = 0, high = 0; // Interval: bounds (may be +-inf), open at both ends
-    QString text;             // Text
-    cond::CellValue sample;   // a value of this piece (for evaluation)
+    int text = -1;            // Text, OtherText: index in DecisionVar::texts
+    double low = 0, high = 0; // Interval: bounds (may be +-inf), open at both ends; else the value
+    double sample = 0;        // Code, Point, Interval: a number of this piece (for evaluation)
+
+    bool isText() const { return kind == Kind::Text || kind == Kind::OtherText; }
 };
 
 // A cell: a set of values no condition of the instrument tells apart. Cell 0
@@ -46,13 +51,22 @@ struct DecisionVar {
     // per cell cost two allocations a cell, scattered over the heap, which
     // printing universes and freeing the algebra then walked.
     QList<ValuePiece> pieces;
+    // The text pieces' strings: a literal (Text), or the literal followed by
+    // U+0001 (OtherText: the values just after it, blank for the first gap).
+    QStringList texts;
 
     std::span<const ValuePiece> piecesOf(int cell) const {
         const ValueCell& c = cells[cell];
         return {pieces.constData() + c.firstPiece, std::size_t(c.pieceCount)};
     }
+    const QString& textOf(const ValuePiece& p) const { return texts[p.text]; }
+    // A value of this piece (for evaluation).
+    cond::CellValue valueOf(const ValuePiece& p) const {
+        return p.isText() ? cond::CellValue::ofText(textOf(p))
+                          : cond::CellValue::ofNumber(p.sample);
+    }
     // A value of a presented cell (for evaluation).
-    const cond::CellValue& sampleOf(int cell) const { return piecesOf(cell).front().sample; }
+    cond::CellValue sampleOf(int cell) const { return valueOf(piecesOf(cell).front()); }
 };
 
 // The canonical condition algebra of one instrument: every condition becomes a
@@ -107,7 +121,8 @@ private:
     void buildVariables();
     void buildValueVar(int position, const ItemAtoms& atoms);
     void buildMultiVars(int position, const ItemAtoms& atoms);
-    QList<ValuePiece> candidatePieces(int position, const ItemAtoms& atoms) const;
+    QList<ValuePiece> candidatePieces(int position, const ItemAtoms& atoms,
+                                      QStringList& texts) const;
     QList<bool> signature(int position, const ItemAtoms& atoms, const cond::CellValue& v) const;
     int atom(const cond::Expr& expr);
     int valueCellOf(int var, const cond::CellValue& value) const;

@@ -43,10 +43,10 @@ QList<TextUnit> textUnits(const DecisionVar& var) {
     for (int c = 1; c < var.cells.size(); ++c)
         for (const ValuePiece& p : var.piecesOf(c)) {
             const bool point = p.kind == ValuePiece::Kind::Text;
-            QString after = p.sample.text;
+            QString after = var.textOf(p);
             if (!point)
-                after.chop(1); // samples of gaps are the literal followed by U+0001
-            units.append({p.sample.text, TextUnit{c, point, after}});
+                after.chop(1); // gaps are the literal followed by U+0001
+            units.append({var.textOf(p), TextUnit{c, point, after}});
         }
     std::sort(units.begin(), units.end(),
               [](const auto& a, const auto& b) { return a.first < b.first; });
@@ -106,7 +106,7 @@ QList<UniversePrinter::Segment> UniversePrinter::segmentsOf(const DecisionVar& v
         if (!cells.test(c))
             continue;
         for (const ValuePiece& p : var.piecesOf(c)) {
-            if (p.kind == ValuePiece::Kind::Text || p.kind == ValuePiece::Kind::OtherText)
+            if (p.isText())
                 onlyNumbers = false;
             else if (p.kind == ValuePiece::Kind::Interval)
                 raw.append({p.low, p.high, false, false});
@@ -157,7 +157,7 @@ std::optional<QString> UniversePrinter::valueList(const DecisionVar& var, const 
             for (const ValuePiece& p : var.piecesOf(c)) {
                 if (p.kind != ValuePiece::Kind::Text)
                     return std::nullopt;
-                texts.append(quoted(p.text));
+                texts.append(quoted(var.textOf(p)));
             }
         }
         single = texts.size() == 1;
