@@ -377,9 +377,20 @@ int ConditionAlgebra::condition(const cond::Expr& expr) {
     }
 }
 
+// A small direct-mapped cache rather than a table of every atom: atoms are
+// translated again mostly while nearby (a module's filter, once for each of its
+// items), and a table holding all of a large instrument's atoms cost two
+// probes far apart in memory for each one. A lost entry is only recomputed:
+// the diagram gives the same node for the same function.
+ConditionAlgebra::AtomSlot& ConditionAlgebra::atomSlot(const cond::Expr* expr) {
+    const auto address = reinterpret_cast<std::uintptr_t>(expr);
+    return m_atomCache[((address >> 4) ^ (address >> 14)) & (AtomCacheSize - 1)];
+}
+
 int ConditionAlgebra::atom(const cond::Expr& expr) {
-    if (const auto it = m_atomCache.constFind(&expr); it != m_atomCache.constEnd())
-        return *it;
+    AtomSlot& slot = atomSlot(&expr);
+    if (slot.expr == &expr)
+        return slot.node;
     const int position = m_routing->positionOf(expr);
     const QList<int> vars = position < 0 ? QList<int>{} : varsOf(position);
     int result = Mdd::False;
@@ -422,7 +433,7 @@ int ConditionAlgebra::atom(const cond::Expr& expr) {
             result = m_mdd.literal(vars[0], truth);
         }
     }
-    m_atomCache.insert(&expr, result);
+    slot = {&expr, result};
     return result;
 }
 

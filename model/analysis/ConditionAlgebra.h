@@ -136,7 +136,13 @@ private:
     std::vector<QList<int>> m_varsOfPosition;
     QHash<int, ItemAtoms> m_atoms;
     std::vector<int> m_empty, m_presented; // position -> node (true for non-gate items)
-    QHash<const cond::Expr*, int> m_atomCache;
+    struct AtomSlot {
+        const cond::Expr* expr = nullptr; // kept alive by the routing or m_keepAlive
+        int node = Mdd::False;
+    };
+    static constexpr std::size_t AtomCacheSize = 1024;
+    AtomSlot& atomSlot(const cond::Expr* expr);
+    std::vector<AtomSlot> m_atomCache = std::vector<AtomSlot>(AtomCacheSize);
     QList<cond::ExprPtr> m_keepAlive;
 };
 

@@ -16,6 +16,7 @@
 #include <QJsonDocument>
 #include <QProcess>
 #include <QRegularExpression>
+#include <QSet>
 #include <QStandardPaths>
 #include <QTemporaryDir>
 #include <QtTest>
@@ -142,6 +143,28 @@ private slots:
                                  algebra.conditionText(u"a = 1"_s)));
         // Different conditions get different nodes.
         QVERIFY(algebra.conditionText(u"a = 1"_s) != algebra.conditionText(u"a in (1, 2)"_s));
+    }
+
+    void atomNodesDoNotDependOnWhatCameBefore() {
+        // 3,000 atoms on one item: more than the algebra's atom cache holds, so
+        // its slots are shared and overwritten. Translated forwards, then
+        // backwards, then spelled differently (new trees, never cached), every
+        // atom must give the same node, and no two atoms the same node (each
+        // names a different value).
+        const Instrument ins = instrument({module(u"m"_s, {integerItem(u"n"_s, 0, 5000)})});
+        CompiledRouting routing(ins);
+        QList<cond::ExprPtr> atoms;
+        for (int v = 0; v < 3000; ++v)
+            atoms.append(routing.compileCondition(u"n = "_s + QString::number(v)));
+        ConditionAlgebra algebra(routing, atoms);
+        QList<int> forwards;
+        for (const cond::ExprPtr& a : atoms)
+            forwards.append(algebra.condition(*a));
+        for (qsizetype v = atoms.size() - 1; v >= 0; --v)
+            QCOMPARE(algebra.condition(*atoms[v]), forwards[v]);
+        for (int v = 0; v < 3000; v += 7)
+            QCOMPARE(algebra.conditionText(u"n in ("_s + QString::number(v) + u')'), forwards[v]);
+        QCOMPARE(QSet<int>(forwards.begin(), forwards.end()).size(), 3000);
     }
 
     void emptySatisfiesOnlyNegations() {
