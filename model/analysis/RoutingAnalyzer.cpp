@@ -79,6 +79,8 @@ void RoutingAnalyzer::run() {
     m_firstRule.assign(n + 1, 0);
     m_feasible = Digraph();
     m_structural = Digraph();
+    m_unaskedReads.clear();
+    ModuleReads module;
     for (int i = 0; i < n; ++i) {
         addStructuralEdges(i);
         const int r = pending[i], lr = loosePending[i];
@@ -97,7 +99,10 @@ void RoutingAnalyzer::run() {
             m_feasible.addEdge(i + 1);
         int rest = shown, looseRest = looseShown;
         m_firstRule[i] = int(m_ruleSets.size());
-        for (const CompiledRouting::CompiledRule& rule : m_routing.item(i).rules) {
+        noteFilterReads(i, module);
+        const QList<CompiledRouting::CompiledRule>& rules = m_routing.item(i).rules;
+        for (int k = 0; k < rules.size(); ++k) {
+            const CompiledRouting::CompiledRule& rule = rules[k];
             RuleSets sets;
             sets.usable = rule.usable;
             if (rule.usable) {
@@ -108,6 +113,9 @@ void RoutingAnalyzer::run() {
                 const int looseFired = mdd.andOp(looseRest, c);
                 rest = mdd.diff(rest, c);
                 looseRest = mdd.diff(looseRest, c);
+                sets.passedOn = rest != Mdd::False;
+                if (rule.condition)
+                    noteUnaskedReads({rule.condition.get(), i, k, false, i}, sets.evaluated);
                 const int t = rule.target;
                 if (sets.fired != Mdd::False)
                     m_feasible.addEdge(t);
@@ -124,6 +132,7 @@ void RoutingAnalyzer::run() {
             m_feasible.addEdge(i + 1);
         m_feasible.closeVertex();
     }
+    noteModuleReads(module);
     m_feasible.closeVertex(); // END
     m_structural.closeVertex();
     m_firstRule[n] = int(m_ruleSets.size());
@@ -379,7 +388,6 @@ void RoutingAnalyzer::addUnreachable(Findings& out, const std::vector<bool>& rea
 }
 
 void RoutingAnalyzer::addRuleFindings(Findings& out) {
-    Mdd& mdd = m_algebra.mdd();
     for (int i = 0; i < m_routing.itemCount(); ++i) {
         if (m_presented[i] == Mdd::False)
             continue;
@@ -416,7 +424,7 @@ void RoutingAnalyzer::addRuleFindings(Findings& out) {
                 f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item +
                             u" has no condition, so the rules after it are never evaluated"_s;
                 out.append(f);
-            } else if (hasIf && mdd.implies(sets.evaluated, sets.fired)) {
+            } else if (hasIf && !sets.passedOn) {
                 Finding f =
                     makeFinding(u"rule-always-fires"_s, Severity::Warning, i, ruleField(k, true));
                 f.column = 1;
@@ -497,83 +505,74 @@ std::optional<QString> RoutingAnalyzer::witnessPath(int set, int untilPosition) 
     return names.isEmpty() ? u"(no item presented before)"_s : names.join(u", "_s);
 }
 
-void RoutingAnalyzer::addUnaskedReads(Findings& out) {
+// The reads of one condition site that can be empty where it is evaluated,
+// worked out while the programme has the site's sets and tree at hand (after
+// it, on a large instrument, both had left the processor's caches).
+void RoutingAnalyzer::noteUnaskedReads(const ConditionSite& site, int evaluatedSet) {
+    if (evaluatedSet == Mdd::False)
+        return;
     Mdd& mdd = m_algebra.mdd();
-    struct Site {
-        const cond::Expr* expr; // owned by m_routing (a pointer: no reference count to touch)
-        int position;           // where it is evaluated
-        int evaluatedSet;       // exact set of assignments on which it is evaluated
-        int rule; // the rule's index, -1 for the ask_if (its field is made for a finding only)
-        bool module;
-        int limit; // reads of items at or after this position are forward references
-    };
-    // Module filters: evaluated at every item of the module; one finding per module.
-    QHash<int, int> moduleSets;
-    QHash<int, int> moduleFirst;
-    QList<Site> sites;
-    for (int i = 0; i < m_routing.itemCount(); ++i) {
-        const ItemIndex::Entry& e = m_routing.index().at(i);
-        if (e.module->askIf) {
-            moduleSets[e.moduleIndex] =
-                mdd.orOp(moduleSets.value(e.moduleIndex, Mdd::False), m_reached[i]);
-            if (!moduleFirst.contains(e.moduleIndex))
-                moduleFirst[e.moduleIndex] = i;
+    UnaskedRead read{site, {}, std::nullopt, Mdd::False};
+    cond::forEachNameRead(*site.expr, [&](const cond::Expr& atom) {
+        const int x = m_routing.positionOf(atom);
+        if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x) || read.empties.contains(x))
+            return;
+        const int on = mdd.andOp(evaluatedSet, m_algebra.emptyOf(x));
+        if (on == Mdd::False)
+            return;
+        if (read.empties.isEmpty()) {
+            read.column = atom.nameColumn;
+            read.witness = on;
         }
+        read.empties.append(x);
+    });
+    if (!read.empties.isEmpty())
+        m_unaskedReads.push_back(std::move(read));
+}
+
+// The item's own filter (the last of its filters when the module has one too),
+// evaluated only where the module's holds.
+void RoutingAnalyzer::noteFilterReads(int position, ModuleReads& module) {
+    const ItemIndex::Entry& e = m_routing.index().at(position);
+    if (e.moduleIndex != module.index) {
+        noteModuleReads(module);
+        module = {e.moduleIndex, position, Mdd::False};
     }
-    // The conditions as CompiledRouting parsed them (usable ones only): the
-    // module's filter first in each of its items' filters, then the item's own.
-    for (auto it = moduleFirst.constBegin(); it != moduleFirst.constEnd(); ++it) {
-        const CompiledRouting::CompiledItem& first = m_routing.item(it.value());
-        if (first.hasModuleFilter)
-            sites.append({first.filters.first().get(), it.value(), moduleSets.value(it.key()), -1,
-                          true, it.value()});
-    }
-    for (int i = 0; i < m_routing.itemCount(); ++i) {
-        const CompiledRouting::CompiledItem& compiled = m_routing.item(i);
-        if (compiled.filters.size() > (compiled.hasModuleFilter ? 1 : 0))
-            sites.append({compiled.filters.last().get(), i, itemFilterEvaluated(i), -1, false, i});
-        for (int k = 0; k < compiled.rules.size(); ++k) {
-            const CompiledRouting::CompiledRule& rule = compiled.rules.at(k);
-            if (rule.usable && rule.condition)
-                sites.append({rule.condition.get(), i, ruleSets(i, k).evaluated, k, false, i});
-        }
-    }
-    for (const Site& site : sites) {
-        if (site.evaluatedSet == Mdd::False)
-            continue;
-        QVarLengthArray<int, 4> empties; // positions of the read items that can be empty
-        std::optional<int> column;
-        int witness = Mdd::False;
-        cond::forEachNameRead(*site.expr, [&](const cond::Expr& atom) {
-            const int x = m_routing.positionOf(atom);
-            if (x < 0 || x >= site.limit || !m_algebra.isGateItem(x) || empties.contains(x))
-                return;
-            const int on = mdd.andOp(site.evaluatedSet, m_algebra.emptyOf(x));
-            if (on == Mdd::False)
-                return;
-            if (empties.isEmpty()) {
-                column = atom.nameColumn;
-                witness = on;
-            }
-            empties.append(x);
-        });
-        if (empties.isEmpty())
-            continue;
+    // A module's filter is evaluated at every item of the module: one site per module.
+    if (e.module->askIf)
+        module.evaluated = m_algebra.mdd().orOp(module.evaluated, m_reached[position]);
+    const CompiledRouting::CompiledItem& compiled = m_routing.item(position);
+    if (compiled.filters.size() > (compiled.hasModuleFilter ? 1 : 0))
+        noteUnaskedReads({compiled.filters.last().get(), position, -1, false, position},
+                         itemFilterEvaluated(position));
+}
+
+void RoutingAnalyzer::noteModuleReads(const ModuleReads& module) {
+    if (module.index < 0)
+        return;
+    const CompiledRouting::CompiledItem& first = m_routing.item(module.first);
+    if (first.hasModuleFilter)
+        noteUnaskedReads({first.filters.first().get(), module.first, -1, true, module.first},
+                         module.evaluated);
+}
+
+void RoutingAnalyzer::addUnaskedReads(Findings& out) {
+    for (const UnaskedRead& read : m_unaskedReads) {
+        const ConditionSite& site = read.site;
         QStringList names;
-        for (int x : empties)
+        for (int x : read.empties)
             names.append(m_routing.index().at(x).item->name);
         Finding f = makeFinding(u"reads-unasked-item"_s, Severity::Warning, site.position,
                                 site.rule < 0 ? u"ask_if"_s : ruleField(site.rule, true));
-        if (site.module) {
+        if (site.module)
             f.item.clear();
-        }
-        f.column = column;
-        m_readWitness.insert(f.id(), witness);
-        const QString path = witnessPath(witness, site.position).value_or(QString());
+        f.column = read.column;
+        m_readWitness.insert(f.id(), read.witness);
+        const QString path = witnessPath(read.witness, site.position).value_or(QString());
         f.message = u"the condition reads "_s + names.first() +
                     u", which is empty (not presented) on some paths that reach it, e.g. after "_s +
                     path;
-        if (empties.size() > 1)
+        if (names.size() > 1)
             f.message +=
                 u"; also reads "_s + names.mid(1).join(u", "_s) + u", which can be empty there"_s;
         out.append(f);

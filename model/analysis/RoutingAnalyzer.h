@@ -6,6 +6,9 @@
 #include "Scc.h"
 #include "UniversePrinter.h"
 
+#include <QVarLengthArray>
+
+#include <optional>
 #include <vector>
 
 namespace rb::analysis {
@@ -44,6 +47,28 @@ private:
         int evaluated = Mdd::False; // exact: rule reached (earlier rules did not fire)
         int fired = Mdd::False;
         bool usable = false;
+        bool passedOn = false; // some respondents evaluate the rule and it does not fire
+    };
+    // A condition and where it is evaluated.
+    struct ConditionSite {
+        const cond::Expr* expr; // owned by m_routing (a pointer: no reference count to touch)
+        int position;
+        int rule;    // the rule's index, -1 for the ask_if
+        bool module; // a module's filter
+        int limit;   // reads of items at or after this position are forward references
+    };
+    // A site that can read an empty gate item (a reads-unasked-item finding).
+    struct UnaskedRead {
+        ConditionSite site;
+        QVarLengthArray<int, 4> empties; // positions of the read items that can be empty there
+        std::optional<int> column;       // of the first of them in the condition
+        int witness;                     // where it is evaluated and the first one is empty
+    };
+    // The module whose items the programme is in, and where its filter is evaluated.
+    struct ModuleReads {
+        int index = -1;
+        int first = -1;
+        int evaluated = Mdd::False;
     };
     void run();
     int filterNode(int position);
@@ -59,6 +84,9 @@ private:
     void addLoopFindings(Findings& out) const;
     void addUnreachable(Findings& out, const std::vector<bool>& reachable) const;
     void addRuleFindings(Findings& out);
+    void noteUnaskedReads(const ConditionSite& site, int evaluatedSet);
+    void noteFilterReads(int position, ModuleReads& module);
+    void noteModuleReads(const ModuleReads& module);
     void addUnaskedReads(Findings& out);
     std::optional<QString> witnessPath(int set, int untilPosition);
     Finding makeFinding(const QString& check, Severity severity, int position,
@@ -76,9 +104,10 @@ private:
     Digraph m_structural; // every usable edge, feasible or not
     std::vector<std::vector<int>> m_loops;
     std::vector<bool> m_inLoop;
-    std::vector<int> m_consistency;    // per position, -1 until asked for
-    QHash<QString, int> m_readWitness; // reads-unasked-item id -> witness set
-    std::vector<int> m_scratch;        // a cell per variable, all 0 between uses
+    std::vector<int> m_consistency;          // per position, -1 until asked for
+    std::vector<UnaskedRead> m_unaskedReads; // found by the programme, in its order
+    QHash<QString, int> m_readWitness;       // reads-unasked-item id -> witness set
+    std::vector<int> m_scratch;              // a cell per variable, all 0 between uses
 };
 
 } // namespace rb::analysis
