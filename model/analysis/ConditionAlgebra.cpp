@@ -78,6 +78,7 @@ std::optional<ValuePiece> intervalPiece(double low, double high, bool integer) {
 ConditionAlgebra::ConditionAlgebra(const CompiledRouting& routing,
                                    const QList<cond::ExprPtr>& extra)
     : m_routing(&routing), m_varsOfPosition(std::size_t(routing.itemCount())),
+      m_atoms(std::size_t(routing.itemCount())),
       m_empty(std::size_t(routing.itemCount()), Mdd::True),
       m_presented(std::size_t(routing.itemCount()), Mdd::True) {
     for (int p = 0; p < routing.itemCount(); ++p) {
@@ -105,7 +106,8 @@ void ConditionAlgebra::collect(const cond::Expr& expr) {
     const int position = m_routing->positionOf(expr);
     if (position < 0 || m_routing->index().at(position).item->type == ItemType::Statement)
         return;
-    ItemAtoms& atoms = m_atoms[position];
+    ItemAtoms& atoms = m_atoms[std::size_t(position)];
+    atoms.read = true;
     if (expr.kind == cond::Expr::Kind::Asked)
         return;
     atoms.atoms.append(&expr);
@@ -118,14 +120,15 @@ void ConditionAlgebra::collect(const cond::Expr& expr) {
 }
 
 void ConditionAlgebra::buildVariables() {
-    QList<int> positions = m_atoms.keys();
     // Later items first: smaller variable ids sit nearer the root.
-    std::sort(positions.begin(), positions.end(), std::greater<int>());
-    for (int position : positions) {
+    for (int position = int(m_atoms.size()) - 1; position >= 0; --position) {
+        const ItemAtoms& atoms = m_atoms[std::size_t(position)];
+        if (!atoms.read)
+            continue;
         if (m_routing->index().at(position).item->type == ItemType::Multi)
-            buildMultiVars(position, m_atoms.value(position));
+            buildMultiVars(position, atoms);
         else
-            buildValueVar(position, m_atoms.value(position));
+            buildValueVar(position, atoms);
     }
 }
 
@@ -253,7 +256,7 @@ void ConditionAlgebra::buildValueVar(int position, const ItemAtoms& atoms) {
         var.pieces[var.cells[c].firstPiece + placed[std::size_t(c)]++] = std::move(candidates[i]);
     }
     const int id = m_mdd.addVar(int(var.cells.size()));
-    m_vars.append(var);
+    m_vars.append(std::move(var));
     m_varsOfPosition[position] = {id};
     m_empty[position] = m_mdd.literalCell(id, 0);
     m_presented[position] = m_mdd.notOp(m_empty[position]);
@@ -294,7 +297,7 @@ void ConditionAlgebra::buildMultiVars(int position, const ItemAtoms& atoms) {
         has.code = code;
         has.cells = {ValueCell{}, ValueCell{}};
         const int v = m_mdd.addVar(2);
-        m_vars.append(has);
+        m_vars.append(std::move(has));
         ids.append(v);
         inH.append(code);
         const int yes = m_mdd.literalCell(v, 1);
@@ -444,7 +447,7 @@ int ConditionAlgebra::valueCellOf(int var, const cond::CellValue& value) const {
     // A cell's signature is that of any of its pieces (cells are made by
     // signature); worked out again here rather than kept with every cell, as
     // only replaying answers asks.
-    const ItemAtoms atoms = m_atoms.value(v.position);
+    const ItemAtoms& atoms = m_atoms[std::size_t(v.position)];
     const QList<bool> sig = signature(v.position, atoms, value);
     for (int c = 1; c < v.cells.size(); ++c)
         if (signature(v.position, atoms, v.sampleOf(c)) == sig)

@@ -116,6 +116,7 @@ private:
         // the `extra` ones, kept alive): pointers, not copies of every atom.
         QList<const cond::Expr*> atoms;
         QList<qint64> hasCodes;
+        bool read = false; // some usable condition reads the item (asked() included)
     };
     void collect(const cond::Expr& expr);
     void buildVariables();
@@ -134,7 +135,9 @@ private:
     QList<DecisionVar> m_vars;
     // Per position (vectors, not hashes: the programme asks for every item).
     std::vector<QList<int>> m_varsOfPosition;
-    QHash<int, ItemAtoms> m_atoms;
+    // Per position (a vector: conditions read nearby items, whose entries then
+    // sit together, where a hash table put each one somewhere else).
+    std::vector<ItemAtoms> m_atoms;
     std::vector<int> m_empty, m_presented; // position -> node (true for non-gate items)
     struct AtomSlot {
         const cond::Expr* expr = nullptr; // kept alive by the routing or m_keepAlive
