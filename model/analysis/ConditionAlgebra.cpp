@@ -104,7 +104,7 @@ void ConditionAlgebra::collect(const cond::Expr& expr) {
         return;
     }
     const int position = m_routing->positionOf(expr);
-    if (position < 0 || m_routing->index().at(position).item->type == ItemType::Statement)
+    if (position < 0 || m_routing->index().at(position).type == ItemType::Statement)
         return;
     ItemAtoms& atoms = m_atoms[std::size_t(position)];
     atoms.read = true;
@@ -125,7 +125,7 @@ void ConditionAlgebra::buildVariables() {
         const ItemAtoms& atoms = m_atoms[std::size_t(position)];
         if (!atoms.read)
             continue;
-        if (m_routing->index().at(position).item->type == ItemType::Multi)
+        if (m_routing->index().at(position).type == ItemType::Multi)
             buildMultiVars(position, atoms);
         else
             buildValueVar(position, atoms);

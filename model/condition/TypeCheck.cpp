@@ -52,7 +52,7 @@ private:
             bool isCode = false;
             const qint64 code = name.mid(cut + 1).toLongLong(&isCode);
             const int position = m_index.positionOf(name.left(cut));
-            if (isCode && position >= 0 && m_index.at(position).item->type == ItemType::Multi)
+            if (isCode && position >= 0 && m_index.at(position).type == ItemType::Multi)
                 return u" (to test one code of multi item '%1', write '%1 has %2')"_s.arg(
                     m_index.at(position).item->name, QString::number(code));
         }
@@ -60,24 +60,27 @@ private:
     }
 
     void checkAtom(const Expr& atom) {
-        const int position = m_index.positionOf(atom.name);
+        // Resolved when parsed for this instrument: looking every name up again
+        // cost a probe of the name table per atom.
+        const int position =
+            atom.position != Expr::kUnresolved ? atom.position : m_index.positionOf(atom.name);
         if (position < 0) {
             report(atom, u"unknown-variable"_s,
                    u"unknown item '%1'%2"_s.arg(atom.name, unknownHint(atom.name)));
             return;
         }
-        const Item& item = *m_index.at(position).item;
-        if (const QString problem = typeProblem(atom, item); !problem.isEmpty())
+        // The type from the index entry, not the item: entries sit together.
+        if (const QString problem = typeProblem(atom, m_index.at(position).type);
+            !problem.isEmpty())
             report(atom, u"type-mismatch"_s, problem);
     }
 
     // The first type problem of one atom, or "" (one problem per atom is
     // enough to act on; more would repeat the same mistake).
-    static QString typeProblem(const Expr& atom, const Item& item) {
-        const QString typeName = itemTypeName(item.type);
+    static QString typeProblem(const Expr& atom, ItemType type) {
         if (atom.kind == Expr::Kind::Asked)
             return {};
-        if (item.type == ItemType::Statement) {
+        if (type == ItemType::Statement) {
             if (atom.kind == Expr::Kind::Answered)
                 return u"'%1' is a statement and holds no value, so answered(%1) is never true; "
                        u"use asked(%1)"_s.arg(atom.name);
@@ -86,40 +89,40 @@ private:
         }
         if (atom.kind == Expr::Kind::Answered)
             return {};
-        if (atom.kind == Expr::Kind::Has && item.type != ItemType::Multi)
-            return u"'has' is for multi items; '%1' is a %2 item (use '=' or 'in')"_s.arg(atom.name,
-                                                                                          typeName);
-        if (atom.kind != Expr::Kind::Has && item.type == ItemType::Multi)
+        if (atom.kind == Expr::Kind::Has && type != ItemType::Multi)
+            return u"'has' is for multi items; '%1' is a %2 item (use '=' or 'in')"_s.arg(
+                atom.name, itemTypeName(type));
+        if (atom.kind != Expr::Kind::Has && type == ItemType::Multi)
             return u"'%1' is a multi item; use 'has' to test a chosen code (%1 has CODE)"_s.arg(
                 atom.name);
         if (atom.kind == Expr::Kind::In)
-            return listProblem(atom, item);
-        return valueProblem(atom.value, atom.name, item);
+            return listProblem(atom, type);
+        return valueProblem(atom.value, atom.name, type);
     }
 
-    static QString listProblem(const Expr& atom, const Item& item) {
+    static QString listProblem(const Expr& atom, ItemType type) {
         for (const ListElement& element : atom.list) {
-            if (element.high && item.type == ItemType::Text)
+            if (element.high && type == ItemType::Text)
                 return u"a range (..) cannot be used with text item '%1'"_s.arg(atom.name);
-            QString problem = valueProblem(element.low, atom.name, item);
+            QString problem = valueProblem(element.low, atom.name, type);
             if (problem.isEmpty() && element.high)
-                problem = valueProblem(*element.high, atom.name, item);
+                problem = valueProblem(*element.high, atom.name, type);
             if (!problem.isEmpty())
                 return problem;
         }
         return {};
     }
 
-    static QString valueProblem(const Value& value, const QString& name, const Item& item) {
-        const QString typeName = itemTypeName(item.type);
-        if (holdsNumbers(item.type) && !value.isNumber())
-            return u"'%1' is a %2 item; compare it with a number, not text"_s.arg(name, typeName);
-        if (item.type == ItemType::Text && value.isNumber())
+    static QString valueProblem(const Value& value, const QString& name, ItemType type) {
+        if (holdsNumbers(type) && !value.isNumber())
+            return u"'%1' is a %2 item; compare it with a number, not text"_s.arg(
+                name, itemTypeName(type));
+        if (type == ItemType::Text && value.isNumber())
             return u"'%1' is a text item; compare it with \"text\", not a number"_s.arg(name);
-        if (item.type == ItemType::Date && value.isNumber())
+        if (type == ItemType::Date && value.isNumber())
             return u"'%1' is a date item; compare it with a date in quotes, e.g. \"2024-05-31\""_s
                 .arg(name);
-        if (item.type == ItemType::Date && !isIsoDate(value.text))
+        if (type == ItemType::Date && !isIsoDate(value.text))
             return u"'%1' is not a date in the form YYYY-MM-DD (item '%2' is a date)"_s.arg(
                 value.text, name);
         return {};

@@ -14,7 +14,8 @@ struct ConditionProblem {
 
 // Unknown names; `has` on a non-multi item; `=`/`<`/`in` on a multi item; text
 // compared with a number or a number with text; a range on a text item; reading
-// a `statement`. Names resolve through the index, ignoring case.
+// a `statement`. Names resolve through the index, ignoring case; atoms parsed
+// with a resolver keep the position it gave (resolve against this same index).
 QList<ConditionProblem> typeCheck(const Expr& expr, const ItemIndex& index);
 
 // Every atom's item name as written, in order of appearance (with repeats).

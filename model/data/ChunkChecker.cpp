@@ -125,7 +125,7 @@ void ChunkChecker::writeRow(RecordFields fields, QByteArray& out) {
         if (!m_program.hasVariable(p) || s.classes[size_t(p)] != CellClass::LegitimateSkip)
             continue;
         const QByteArray& value = s.implied[size_t(p)] ? m_impliedValues[size_t(p)] : m_skipCode;
-        if (m_routing.index().at(p).item->type == ItemType::Multi) {
+        if (m_routing.index().at(p).type == ItemType::Multi) {
             for (int c : m_mapping.multiColumns[size_t(p)])
                 override(c, value);
         } else {

@@ -86,7 +86,7 @@ ItemIndex::ItemIndex(const Instrument& instrument) {
         // An empty module's goto lands on whatever follows it.
         m_moduleFirst.insert(module.name, position);
         for (const Item& item : module.items)
-            m_entries.append({&item, &module, m, position++});
+            m_entries.append({&item, &module, m, position++, item.type});
     }
     // Duplicate names: keep the first occurrence (a duplicate-name finding
     // reports the rest).

@@ -141,6 +141,9 @@ public:
         const Module* module;
         int moduleIndex;
         int position; // 0-based flat questionnaire position
+        // The item's type, copied here: the analysis asks it of every item a
+        // condition reads, and the entries sit together where the items do not.
+        ItemType type;
     };
 
     const QList<Entry>& entries() const { return m_entries; }
