@@ -90,8 +90,12 @@ ItemIndex::ItemIndex(const Instrument& instrument) {
     }
     // Duplicate names: keep the first occurrence (a duplicate-name finding
     // reports the rest).
+    // Two steps ahead: a name's characters first (the hash reads them), its
+    // slot once they have arrived.
     constexpr int ahead = NameTable::PrefetchDistance;
     for (qsizetype i = 0; i < m_entries.size(); ++i) {
+        if (i + 2 * ahead < m_entries.size())
+            __builtin_prefetch(m_entries[i + 2 * ahead].item->name.constData());
         if (i + ahead < m_entries.size())
             m_byName.prefetch(m_entries[i + ahead].item->name);
         m_byName.insert(m_entries[i].item->name, int(i));

@@ -52,6 +52,9 @@ public:
     cond::ExprPtr compileCondition(const QString& text) const;
 
 private:
+    static void prefetchRules(const Item& item);
+    static void prefetchConditions(const Item& item);
+
     const Instrument* m_instrument;
     ItemIndex m_index;
     QList<CompiledItem> m_items;
