@@ -49,8 +49,7 @@ public:
         for (const Module& module : instrument.modules) {
             claimModuleName(module);
             for (qsizetype i = 0; i < module.items.size(); ++i) {
-                if (position + NameTable::PrefetchDistance < m_index.size())
-                    m_names.prefetch(m_index.at(position + NameTable::PrefetchDistance).item->name);
+                prefetchAhead(position);
                 const ItemIndex::Entry& entry = m_index.at(position++);
                 claimItemNames(entry);
                 noteCodeListUse(*entry.item);
@@ -63,6 +62,25 @@ public:
     }
 
 private:
+    // What the pass reads of later items, two steps ahead: on a large
+    // instrument each name, text and tree is a block of its own that is not
+    // in the caches. First the blocks the item points to, then (once those
+    // have arrived) the name's table slot and the rules' trees.
+    void prefetchAhead(int position) const {
+        constexpr int ahead = NameTable::PrefetchDistance;
+        if (position + 2 * ahead < m_index.size()) {
+            const Item& far = *m_index.at(position + 2 * ahead).item;
+            __builtin_prefetch(far.name.constData());
+            __builtin_prefetch(far.text.constData());
+            __builtin_prefetch(far.routing.constData());
+            __builtin_prefetch(m_routing.item(position + 2 * ahead).rules.constData());
+        }
+        if (position + ahead < m_index.size()) {
+            m_names.prefetch(m_index.at(position + ahead).item->name);
+            for (const CompiledRouting::CompiledRule& rule : m_routing.item(position + ahead).rules)
+                __builtin_prefetch(rule.condition.get());
+        }
+    }
     void add(const Place& place, const QString& check, Severity severity, const QString& message,
              std::optional<int> column = std::nullopt) {
         Finding f;
