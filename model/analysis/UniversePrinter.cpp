@@ -72,7 +72,7 @@ QList<std::pair<int, int>> textRuns(const QList<TextUnit>& units, const CellSet&
 
 } // namespace
 
-QString UniversePrinter::itemName(int position) const {
+const QString& UniversePrinter::itemName(int position) const {
     return m_algebra.routing().index().at(position).item->name;
 }
 
@@ -200,7 +200,7 @@ std::optional<QString> UniversePrinter::comparison(const QString& name,
 
 std::optional<QString> UniversePrinter::positive(const DecisionVar& var,
                                                  const CellSet& cells) const {
-    const QString name = itemName(var.position);
+    const QString& name = itemName(var.position);
     const CellSet all = nonEmptyCells(var, CellSet::full(int(var.cells.size())));
     if (cells == all)
         return u"asked("_s + name + u')';
@@ -250,7 +250,7 @@ std::optional<QString> UniversePrinter::positive(const DecisionVar& var,
 
 QString UniversePrinter::literal(const SopLiteral& lit) const {
     const DecisionVar& var = m_algebra.variable(lit.var);
-    const QString name = itemName(var.position);
+    const QString& name = itemName(var.position);
     if (var.role == DecisionVar::Role::MultiHas)
         return (lit.cells.test(1) ? QString() : u"not "_s) + name + u" has "_s +
                QString::number(var.code);

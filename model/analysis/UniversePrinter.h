@@ -25,7 +25,9 @@ private:
         double low, high;
         bool lowClosed, highClosed;
     };
-    QString itemName(int position) const;
+    // A reference: a copy touched the shared name's reference count, a write to
+    // memory that on a large instrument is no longer in the caches.
+    const QString& itemName(int position) const;
     QString itemLabel(int position) const;
     QString codeWords(int position, qint64 code) const;
     QList<Segment> segmentsOf(const DecisionVar& var, const CellSet& cells, bool integer,
