@@ -257,7 +257,8 @@ void ConditionAlgebra::buildValueVar(int position, const ItemAtoms& atoms) {
     }
     const int id = m_mdd.addVar(int(var.cells.size()));
     m_vars.append(std::move(var));
-    m_varsOfPosition[position] = {id};
+    m_varsOfPosition[std::size_t(position)] = {int(m_varIds.size()), 1};
+    m_varIds.push_back(id);
     m_empty[position] = m_mdd.literalCell(id, 0);
     m_presented[position] = m_mdd.notOp(m_empty[position]);
 }
@@ -325,7 +326,8 @@ void ConditionAlgebra::buildMultiVars(int position, const ItemAtoms& atoms) {
             status.cells[cell].answered ? someAnswered : m_mdd.andOp(noAnswered, someMissing);
         presented = m_mdd.orOp(presented, m_mdd.andOp(is, consistent));
     }
-    m_varsOfPosition[position] = ids;
+    m_varsOfPosition[std::size_t(position)] = {int(m_varIds.size()), int(ids.size())};
+    m_varIds.insert(m_varIds.end(), ids.begin(), ids.end());
     m_empty[position] = emptyNode;
     m_presented[position] = presented;
 }
@@ -395,9 +397,9 @@ int ConditionAlgebra::atom(const cond::Expr& expr) {
     if (slot.expr == &expr)
         return slot.node;
     const int position = m_routing->positionOf(expr);
-    const QList<int> vars = position < 0 ? QList<int>{} : varsOf(position);
+    const std::span<const int> vars = position < 0 ? std::span<const int>() : varsOf(position);
     int result = Mdd::False;
-    if (vars.isEmpty()) {
+    if (vars.empty()) {
         // Not a gate item (an unknown name or a statement): it reads as empty.
         result = cond::evaluate(expr, singleEnvironment(std::max(position, 0),
                                                         cond::CellValue::notPresented()))
@@ -478,8 +480,8 @@ std::vector<int> ConditionAlgebra::assignmentOf(const QList<cond::CellValue>& va
 
 cond::CellValue ConditionAlgebra::sampleValue(int position,
                                               const std::vector<int>& cellOfVar) const {
-    const QList<int> vars = varsOf(position);
-    if (vars.isEmpty())
+    const std::span<const int> vars = varsOf(position);
+    if (vars.empty())
         return cond::CellValue::notPresented();
     const DecisionVar& first = m_vars[vars[0]];
     int cell = cellOfVar.at(vars[0]);
@@ -490,7 +492,7 @@ cond::CellValue ConditionAlgebra::sampleValue(int position,
     if (first.role == DecisionVar::Role::Value)
         return first.sampleOf(cell);
     QList<qint64> chosen;
-    for (int v : vars.mid(1))
+    for (int v : vars.subspan(1))
         if (cellOfVar.at(v) == 1)
             chosen.append(m_vars[v].code);
     const bool wantAnswered = first.cells[cell].answered;
@@ -501,7 +503,7 @@ cond::CellValue ConditionAlgebra::sampleValue(int position,
         // Add a code no `has` names, of the kind the status needs.
         for (const Code& c : m_routing->codes(position)) {
             bool named = false;
-            for (int v : vars.mid(1))
+            for (int v : vars.subspan(1))
                 named = named || m_vars[v].code == c.code;
             if (!named && c.isMissing() != wantAnswered) {
                 chosen.append(c.code);

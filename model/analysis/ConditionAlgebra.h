@@ -99,8 +99,11 @@ public:
     // Item at `position` is empty / presented (with its value in its domain).
     int emptyOf(int position) const;
     int presentedOf(int position) const;
-    bool isGateItem(int position) const { return !varsOf(position).isEmpty(); }
-    const QList<int>& varsOf(int position) const { return m_varsOfPosition.at(position); }
+    bool isGateItem(int position) const { return m_varsOfPosition.at(position).count > 0; }
+    std::span<const int> varsOf(int position) const {
+        const VarSpan s = m_varsOfPosition.at(position);
+        return {m_varIds.data() + s.first, std::size_t(s.count)};
+    }
     const DecisionVar& variable(int var) const { return m_vars.at(var); }
     int varCount() const { return int(m_vars.size()); }
 
@@ -134,7 +137,14 @@ private:
     Mdd m_mdd;
     QList<DecisionVar> m_vars;
     // Per position (vectors, not hashes: the programme asks for every item).
-    std::vector<QList<int>> m_varsOfPosition;
+    // A list per position cost an allocation per gate item, and copying one
+    // touched its reference count: the ids sit in one vector, item by item.
+    struct VarSpan {
+        int first = 0; // in m_varIds
+        int count = 0;
+    };
+    std::vector<VarSpan> m_varsOfPosition;
+    std::vector<int> m_varIds;
     // Per position (a vector: conditions read nearby items, whose entries then
     // sit together, where a hash table put each one somewhere else).
     std::vector<ItemAtoms> m_atoms;

@@ -218,9 +218,9 @@ ItemUniverse RoutingAnalyzer::universe(int position, Sop* sopOut) {
     }
     std::vector<int> vars;
     for (int p : keep) {
-        QList<int> vs = m_algebra.varsOf(p);
-        std::sort(vs.begin(), vs.end());
+        const std::span<const int> vs = m_algebra.varsOf(p);
         vars.insert(vars.end(), vs.begin(), vs.end());
+        std::sort(vars.end() - std::ptrdiff_t(vs.size()), vars.end());
     }
     const int limit = keep.size() <= ExactGateItems ? int(vars.size()) : 0;
     sop = minimiseSop(mdd, on, care, vars, limit);

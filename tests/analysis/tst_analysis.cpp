@@ -643,7 +643,7 @@ private slots:
         QCOMPARE(a->findingIds(), QStringList());
         // The algebra: more cells than the old fixed limit, and the three are one node.
         ConditionAlgebra algebra(*a->routing);
-        QCOMPARE(algebra.variable(algebra.varsOf(0).first()).cells.size(), 1002);
+        QCOMPARE(algebra.variable(algebra.varsOf(0).front()).cells.size(), 1002);
         QCOMPARE(algebra.conditionText(expected),
                  algebra.conditionText(u"not (q not in ("_s + list + u"))"_s));
     }
