@@ -20,6 +20,25 @@ QString punctuationSpelling(QStringView s) {
     return s.toString();
 }
 
+// Whole numbers 0..99 (the codes and thresholds most conditions use) are
+// spelled from one static table: no allocation per literal, and copies of
+// the spelling share static data without a reference count to update.
+QString smallIntegerSpelling(QStringView s) {
+    static const char16_t digits[] =
+        u"00010203040506070809101112131415161718192021222324252627282930"
+        u"31323334353637383940414243444546474849505152535455565758596061"
+        u"626364656667686970717273747576777879808182838485868788899091"
+        u"9293949596979899";
+    const auto digit = [](QChar c) { return c >= u'0' && c <= u'9' ? c.unicode() - u'0' : -1; };
+    if (s.size() == 1 && digit(s[0]) >= 0)
+        return QString::fromRawData(reinterpret_cast<const QChar*>(digits + 2 * digit(s[0]) + 1),
+                                    1);
+    if (s.size() == 2 && digit(s[0]) > 0 && digit(s[1]) >= 0)
+        return QString::fromRawData(
+            reinterpret_cast<const QChar*>(digits + 2 * (digit(s[0]) * 10 + digit(s[1]))), 2);
+    return s.toString();
+}
+
 // The value of a run of digits (with an optional leading '-') short enough
 // to be exact in a double; nullopt for longer ones (QString::toDouble then).
 std::optional<double> smallInteger(QStringView digits) {
@@ -112,6 +131,9 @@ private:
         case Token::Kind::Comma:
         case Token::Kind::DotDot:
             t.text = punctuationSpelling(spelling);
+            return t;
+        case Token::Kind::Integer:
+            t.text = smallIntegerSpelling(spelling);
             return t;
         default:
             break;

@@ -370,6 +370,23 @@ void TestCondition::tokenSpellings() {
     QCOMPARE(kinds, (QList<K>{K::LParen, K::Name, K::Op, K::Integer, K::Keyword, K::Name, K::Op,
                               K::Integer, K::DotDot, K::Integer, K::RParen, K::Comma, K::Name,
                               K::Op, K::Name, K::End}));
+    // Whole numbers keep their spelling and value whichever way they are stored
+    // (0..99 come from a shared table): every one from 0 to 120, and leading
+    // zeros and signs as written.
+    for (int v = 0; v <= 120; ++v) {
+        const LexResult one = lexCondition(QString::number(v));
+        QVERIFY(!one.error);
+        QCOMPARE(one.tokens.first().text, QString::number(v));
+        QCOMPARE(one.tokens.first().number, double(v));
+    }
+    const LexResult odd = lexCondition(u"07 00 -5 099"_s);
+    QVERIFY(!odd.error);
+    QCOMPARE(odd.tokens.at(0).text, u"07"_s);
+    QCOMPARE(odd.tokens.at(0).number, 7.0);
+    QCOMPARE(odd.tokens.at(1).text, u"00"_s);
+    QCOMPARE(odd.tokens.at(2).text, u"-5"_s);
+    QCOMPARE(odd.tokens.at(2).number, -5.0);
+    QCOMPARE(odd.tokens.at(3).text, u"099"_s);
 }
 
 void TestCondition::columns() {
