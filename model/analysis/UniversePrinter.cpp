@@ -147,9 +147,10 @@ QList<UniversePrinter::Segment> UniversePrinter::segmentsOf(const DecisionVar& v
 
 std::optional<QString> UniversePrinter::valueList(const DecisionVar& var, const CellSet& cells,
                                                   bool& single) const {
-    const Item& item = *m_algebra.routing().index().at(var.position).item;
+    // The type from the index entry, not the item: entries sit together.
+    const ItemType type = m_algebra.routing().index().at(var.position).type;
     single = false;
-    if (item.type == ItemType::Text || item.type == ItemType::Date) {
+    if (type == ItemType::Text || type == ItemType::Date) {
         QStringList texts;
         for (int c = 1; c < var.cells.size(); ++c) {
             if (!cells.test(c))
@@ -163,7 +164,7 @@ std::optional<QString> UniversePrinter::valueList(const DecisionVar& var, const 
         single = texts.size() == 1;
         return texts.join(u", "_s);
     }
-    const bool integer = item.type != ItemType::Decimal;
+    const bool integer = type != ItemType::Decimal;
     bool onlyNumbers = true;
     const QList<Segment> segments = segmentsOf(var, cells, integer, onlyNumbers);
     QStringList elements;
@@ -207,8 +208,8 @@ std::optional<QString> UniversePrinter::positive(const DecisionVar& var,
     bool single = false;
     if (const std::optional<QString> list = valueList(var, cells, single))
         return single ? name + u" = "_s + *list : name + u" in ("_s + *list + u')';
-    const Item& item = *m_algebra.routing().index().at(var.position).item;
-    if (item.type == ItemType::Text || item.type == ItemType::Date) {
+    const ItemType type = m_algebra.routing().index().at(var.position).type;
+    if (type == ItemType::Text || type == ItemType::Date) {
         const QList<TextUnit> units = textUnits(var);
         const QList<std::pair<int, int>> runs = textRuns(units, cells);
         QStringList parts;
@@ -231,10 +232,10 @@ std::optional<QString> UniversePrinter::positive(const DecisionVar& var,
         if (!parts.isEmpty())
             return u'(' + parts.join(u" or "_s) + u')';
     }
-    if (item.type == ItemType::Integer || item.type == ItemType::Decimal) {
+    if (type == ItemType::Integer || type == ItemType::Decimal) {
         bool onlyNumbers = true;
         const QList<Segment> segments =
-            segmentsOf(var, cells, item.type == ItemType::Integer, onlyNumbers);
+            segmentsOf(var, cells, type == ItemType::Integer, onlyNumbers);
         if (onlyNumbers)
             if (const std::optional<QString> cmp = comparison(name, segments))
                 return cmp;
@@ -335,9 +336,9 @@ QString UniversePrinter::condition(const Sop& sop) const {
 }
 
 QStringList UniversePrinter::valueWords(const DecisionVar& var, const CellSet& cells) const {
-    const Item& item = *m_algebra.routing().index().at(var.position).item;
+    const ItemType type = m_algebra.routing().index().at(var.position).type;
     QStringList parts;
-    if (item.type == ItemType::Text || item.type == ItemType::Date) {
+    if (type == ItemType::Text || type == ItemType::Date) {
         const QList<TextUnit> units = textUnits(var);
         auto word = [](const QString& t) { return t.isEmpty() ? u"blank"_s : quoted(t); };
         for (auto [first, last] : textRuns(units, cells)) {
@@ -357,15 +358,15 @@ QStringList UniversePrinter::valueWords(const DecisionVar& var, const CellSet& c
         return parts;
     }
     bool onlyNumbers = true;
-    const bool integer = item.type != ItemType::Decimal;
+    const bool integer = type != ItemType::Decimal;
     const QList<Segment> segments = segmentsOf(var, cells, integer, onlyNumbers);
     for (const Segment& s : segments) {
         const bool lowInf = std::isinf(s.low), highInf = std::isinf(s.high);
         if (!lowInf && !highInf && s.low == s.high) {
-            const bool isCode = item.type == ItemType::Single ||
+            const bool isCode = type == ItemType::Single ||
                                 m_algebra.routing().isMissingCode(var.position, qint64(s.low));
             parts.append(isCode ? codeWords(var.position, qint64(s.low)) : number(s.low));
-        } else if (item.type == ItemType::Single) {
+        } else if (type == ItemType::Single) {
             for (double v = s.low; v <= s.high; ++v)
                 for (const Code& c : m_algebra.routing().codes(var.position))
                     if (double(c.code) == v)
