@@ -80,6 +80,7 @@ void RoutingAnalyzer::run() {
     m_feasible = Digraph();
     m_structural = Digraph();
     m_unaskedReads.clear();
+    m_ruleNotes.clear();
     ModuleReads module;
     for (int i = 0; i < n; ++i) {
         addStructuralEdges(i);
@@ -113,7 +114,7 @@ void RoutingAnalyzer::run() {
                 const int looseFired = mdd.andOp(looseRest, c);
                 rest = mdd.diff(rest, c);
                 looseRest = mdd.diff(looseRest, c);
-                sets.passedOn = rest != Mdd::False;
+                noteRuleFiring(i, k, sets, c, rest != Mdd::False);
                 if (rule.condition)
                     noteUnaskedReads({rule.condition.get(), i, k, false, i}, sets.evaluated);
                 const int t = rule.target;
@@ -387,54 +388,58 @@ void RoutingAnalyzer::addUnreachable(Findings& out, const std::vector<bool>& rea
     }
 }
 
-void RoutingAnalyzer::addRuleFindings(Findings& out) {
-    for (int i = 0; i < m_routing.itemCount(); ++i) {
-        if (m_presented[i] == Mdd::False)
-            continue;
-        const QList<CompiledRouting::CompiledRule>& rules = m_routing.item(i).rules;
-        // The rule as written, for a finding's message only: reading (and
-        // copying) every rule's text would touch every item of the instrument.
-        auto written = [&](int k) -> const Rule& {
-            return m_routing.index().at(i).item->routing.at(k);
-        };
-        auto describe = [&](int k) {
-            return u" (if "_s + *written(k).condition + u" go to "_s + written(k).target + u')';
-        };
-        for (int k = 0; k < rules.size(); ++k) {
-            const RuleSets& sets = ruleSets(i, k);
-            if (!sets.usable || sets.evaluated == Mdd::False)
-                continue;
-            const bool hasIf = rules[k].condition != nullptr;
-            if (sets.fired == Mdd::False) {
-                Finding f =
-                    makeFinding(u"rule-never-fires"_s, Severity::Warning, i, ruleField(k, true));
-                f.column = 1;
-                const bool alone = m_algebra.conditionAt(*rules[k].condition, i + 1) == Mdd::False;
-                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + describe(k) +
-                            u" never fires: "_s +
-                            (alone ? u"its condition can never hold"_s
-                                   : u"its condition never holds when the rule is evaluated"_s);
-                out.append(f);
-                continue;
-            }
-            const bool later = k + 1 < rules.size();
-            if (!hasIf && later) {
-                Finding f =
-                    makeFinding(u"rule-always-fires"_s, Severity::Warning, i, ruleField(k, false));
-                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item +
-                            u" has no condition, so the rules after it are never evaluated"_s;
-                out.append(f);
-            } else if (hasIf && !sets.passedOn) {
-                Finding f =
-                    makeFinding(u"rule-always-fires"_s, Severity::Warning, i, ruleField(k, true));
-                f.column = 1;
-                f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item + describe(k) +
-                            u" fires whenever it is evaluated"_s +
-                            (later ? u", so the rules after it are never evaluated"_s
-                                   : u", so its condition is redundant"_s);
-                out.append(f);
-            }
+// rule-never-fires and rule-always-fires, decided while the programme has the
+// rule's sets at hand (a later pass over every rule found them cold).
+// `passedOn`: some respondents evaluate the rule and it does not fire.
+void RoutingAnalyzer::noteRuleFiring(int item, int k, const RuleSets& sets, int condition,
+                                     bool passedOn) {
+    if (sets.evaluated == Mdd::False)
+        return;
+    const bool hasIf = m_routing.item(item).rules.at(k).condition != nullptr;
+    const bool later = k + 1 < m_routing.item(item).rules.size();
+    if (sets.fired == Mdd::False)
+        m_ruleNotes.push_back(
+            {item, k,
+             condition == Mdd::False ? RuleNote::NeverHolds : RuleNote::NeverWhenEvaluated});
+    else if (!hasIf && later)
+        m_ruleNotes.push_back({item, k, RuleNote::AlwaysWithoutIf});
+    else if (hasIf && !passedOn)
+        m_ruleNotes.push_back({item, k, RuleNote::AlwaysWhenEvaluated});
+}
+
+void RoutingAnalyzer::addRuleFindings(Findings& out) const {
+    for (const RuleNote& note : m_ruleNotes) {
+        const int i = note.item, k = note.rule;
+        // The rule as written, for the message only.
+        const Rule& written = m_routing.index().at(i).item->routing.at(k);
+        const bool later = k + 1 < m_routing.item(i).rules.size();
+        const bool always =
+            note.kind == RuleNote::AlwaysWithoutIf || note.kind == RuleNote::AlwaysWhenEvaluated;
+        const bool onIf = note.kind != RuleNote::AlwaysWithoutIf;
+        Finding f = makeFinding(always ? u"rule-always-fires"_s : u"rule-never-fires"_s,
+                                Severity::Warning, i, ruleField(k, onIf));
+        if (onIf)
+            f.column = 1;
+        f.message = u"rule "_s + QString::number(k) + u" of "_s + f.item;
+        if (onIf)
+            f.message += u" (if "_s + *written.condition + u" go to "_s + written.target + u')';
+        switch (note.kind) {
+        case RuleNote::NeverHolds:
+            f.message += u" never fires: its condition can never hold"_s;
+            break;
+        case RuleNote::NeverWhenEvaluated:
+            f.message += u" never fires: its condition never holds when the rule is evaluated"_s;
+            break;
+        case RuleNote::AlwaysWithoutIf:
+            f.message += u" has no condition, so the rules after it are never evaluated"_s;
+            break;
+        case RuleNote::AlwaysWhenEvaluated:
+            f.message += u" fires whenever it is evaluated"_s +
+                         (later ? u", so the rules after it are never evaluated"_s
+                                : u", so its condition is redundant"_s);
+            break;
         }
+        out.append(f);
     }
 }
 

@@ -47,7 +47,11 @@ private:
         int evaluated = Mdd::False; // exact: rule reached (earlier rules did not fire)
         int fired = Mdd::False;
         bool usable = false;
-        bool passedOn = false; // some respondents evaluate the rule and it does not fire
+    };
+    // A rule that never fires or always fires where it is evaluated.
+    struct RuleNote {
+        int item, rule;
+        enum Kind { NeverHolds, NeverWhenEvaluated, AlwaysWithoutIf, AlwaysWhenEvaluated } kind;
     };
     // A condition and where it is evaluated.
     struct ConditionSite {
@@ -83,7 +87,8 @@ private:
     std::vector<bool> structurallyReachable() const;
     void addLoopFindings(Findings& out) const;
     void addUnreachable(Findings& out, const std::vector<bool>& reachable) const;
-    void addRuleFindings(Findings& out);
+    void noteRuleFiring(int item, int k, const RuleSets& sets, int condition, bool passedOn);
+    void addRuleFindings(Findings& out) const;
     void noteUnaskedReads(const ConditionSite& site, int evaluatedSet);
     void noteFilterReads(int position, ModuleReads& module);
     void noteModuleReads(const ModuleReads& module);
@@ -106,6 +111,7 @@ private:
     std::vector<bool> m_inLoop;
     std::vector<int> m_consistency;          // per position, -1 until asked for
     std::vector<UnaskedRead> m_unaskedReads; // found by the programme, in its order
+    std::vector<RuleNote> m_ruleNotes;       // likewise
     QHash<QString, int> m_readWitness;       // reads-unasked-item id -> witness set
     std::vector<int> m_scratch;              // a cell per variable, all 0 between uses
 };
