@@ -81,26 +81,47 @@ ConditionAlgebra::ConditionAlgebra(const CompiledRouting& routing,
       m_atoms(std::size_t(routing.itemCount())),
       m_empty(std::size_t(routing.itemCount()), Mdd::True),
       m_presented(std::size_t(routing.itemCount()), Mdd::True) {
+    std::vector<std::pair<int, const cond::Expr*>> found; // (position read, atom)
     for (int p = 0; p < routing.itemCount(); ++p) {
         const CompiledRouting::CompiledItem& item = routing.item(p);
         for (const cond::ExprPtr& f : item.filters)
-            collect(*f);
+            collect(*f, found);
         for (const CompiledRouting::CompiledRule& r : item.rules)
             if (r.usable && r.condition)
-                collect(*r.condition);
+                collect(*r.condition, found);
     }
     for (const cond::ExprPtr& e : extra)
         if (e) {
             m_keepAlive.append(e); // its atoms are kept by address
-            collect(*e);
+            collect(*e, found);
         }
+    groupAtoms(found);
     buildVariables();
 }
 
-void ConditionAlgebra::collect(const cond::Expr& expr) {
+// Every item's atoms in one vector, item by item and in the order found (a
+// counting sort): a list per read item cost an allocation each.
+void ConditionAlgebra::groupAtoms(const std::vector<std::pair<int, const cond::Expr*>>& found) {
+    for (const auto& [position, atom] : found)
+        ++m_atoms[std::size_t(position)].count;
+    int next = 0;
+    for (ItemAtoms& atoms : m_atoms) {
+        atoms.first = next;
+        next += atoms.count;
+        atoms.count = 0;
+    }
+    m_atomList.resize(found.size());
+    for (const auto& [position, atom] : found) {
+        ItemAtoms& atoms = m_atoms[std::size_t(position)];
+        m_atomList[std::size_t(atoms.first + atoms.count++)] = atom;
+    }
+}
+
+void ConditionAlgebra::collect(const cond::Expr& expr,
+                               std::vector<std::pair<int, const cond::Expr*>>& found) {
     if (!expr.isAtom()) {
         for (const cond::ExprPtr& c : expr.children)
-            collect(*c);
+            collect(*c, found);
         return;
     }
     const int position = m_routing->positionOf(expr);
@@ -110,7 +131,7 @@ void ConditionAlgebra::collect(const cond::Expr& expr) {
     atoms.read = true;
     if (expr.kind == cond::Expr::Kind::Asked)
         return;
-    atoms.atoms.append(&expr);
+    found.emplace_back(position, &expr);
     if (expr.kind == cond::Expr::Kind::Has && expr.value.isNumber() &&
         std::floor(expr.value.number) == expr.value.number) {
         const qint64 code = qint64(expr.value.number);
@@ -153,9 +174,9 @@ QList<bool> ConditionAlgebra::signature(int position, const ItemAtoms& atoms,
     cond::Expr answered; // the environment answers for this item whatever the name
     answered.kind = cond::Expr::Kind::Answered;
     QList<bool> sig;
-    sig.reserve(2 + atoms.atoms.size()); // grown a bool at a time, it reallocated per atom
+    sig.reserve(2 + atoms.count); // grown a bool at a time, it reallocated per atom
     sig << v.presented() << cond::evaluate(answered, env);
-    for (const cond::Expr* a : atoms.atoms)
+    for (const cond::Expr* a : atomsOf(atoms))
         sig.append(cond::evaluate(*a, env));
     return sig;
 }
@@ -179,7 +200,7 @@ QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtom
         const double lo = item.range ? item.range->first.value : -inf;
         const double hi = item.range ? item.range->second.value : inf;
         QList<double> points;
-        for (const cond::Expr* a : atoms.atoms)
+        for (const cond::Expr* a : atomsOf(atoms))
             numbersOf(*a, points);
         QList<double> missing;
         for (const Code& c : item.missing)
@@ -207,7 +228,7 @@ QList<ValuePiece> ConditionAlgebra::candidatePieces(int position, const ItemAtom
     // Text and dates: blank, every literal, and a value just after each literal
     // (text orders by code units, so these stand for every other string).
     QStringList literals;
-    for (const cond::Expr* a : atoms.atoms)
+    for (const cond::Expr* a : atomsOf(atoms))
         textsOf(*a, literals);
     literals.sort();
     literals.removeDuplicates();

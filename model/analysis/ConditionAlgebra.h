@@ -117,11 +117,15 @@ private:
     struct ItemAtoms {
         // Compare / In / Has / Answered on this item, in the routing's trees (or
         // the `extra` ones, kept alive): pointers, not copies of every atom.
-        QList<const cond::Expr*> atoms;
+        int first = 0, count = 0; // in m_atomList
         QList<qint64> hasCodes;
         bool read = false; // some usable condition reads the item (asked() included)
     };
-    void collect(const cond::Expr& expr);
+    std::span<const cond::Expr* const> atomsOf(const ItemAtoms& atoms) const {
+        return {m_atomList.data() + atoms.first, std::size_t(atoms.count)};
+    }
+    void collect(const cond::Expr& expr, std::vector<std::pair<int, const cond::Expr*>>& found);
+    void groupAtoms(const std::vector<std::pair<int, const cond::Expr*>>& found);
     void buildVariables();
     void buildValueVar(int position, const ItemAtoms& atoms);
     void buildMultiVars(int position, const ItemAtoms& atoms);
@@ -148,7 +152,8 @@ private:
     // Per position (a vector: conditions read nearby items, whose entries then
     // sit together, where a hash table put each one somewhere else).
     std::vector<ItemAtoms> m_atoms;
-    std::vector<int> m_empty, m_presented; // position -> node (true for non-gate items)
+    std::vector<const cond::Expr*> m_atomList; // every item's atoms, item after item
+    std::vector<int> m_empty, m_presented;     // position -> node (true for non-gate items)
     struct AtomSlot {
         const cond::Expr* expr = nullptr; // kept alive by the routing or m_keepAlive
         int node = Mdd::False;
