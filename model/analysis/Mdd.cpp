@@ -32,7 +32,7 @@ Mdd::Mdd() {
 
 int Mdd::addVar(int domainSize) {
     m_domains.push_back(domainSize);
-    m_unique.push_back({std::vector<int>(4, -1), 0});
+    m_unique.push_back({std::pmr::vector<int>(4, -1, &m_tableArena), 0});
     return int(m_domains.size()) - 1;
 }
 
@@ -45,7 +45,7 @@ std::uint64_t Mdd::hashNode(int var, const int* children) const {
 
 void Mdd::growTable(int var) {
     UniqueTable& unique = m_unique[var];
-    std::vector<int> table(unique.ids.size() * 2, -1);
+    std::pmr::vector<int> table(unique.ids.size() * 2, -1, &m_tableArena);
     const std::size_t mask = table.size() - 1;
     for (int id : unique.ids) {
         if (id < 0)
@@ -67,7 +67,7 @@ int Mdd::make(int var, const int* children) {
         return children[0];
     if ((m_unique[var].used + 1) * 2 > m_unique[var].ids.size())
         growTable(var);
-    std::vector<int>& table = m_unique[var].ids;
+    std::pmr::vector<int>& table = m_unique[var].ids;
     const std::size_t mask = table.size() - 1;
     std::size_t slot = hashNode(var, children) & mask;
     while (table[slot] >= 0) {

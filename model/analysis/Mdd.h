@@ -3,6 +3,7 @@
 #include "HugePageAllocator.h"
 
 #include <cstdint>
+#include <memory_resource>
 #include <optional>
 #include <vector>
 
@@ -78,8 +79,12 @@ private:
     // variable: the analysis works on a window of nearby variables at a time,
     // so their small tables stay in the cache where one big table would miss
     // on every probe.
+    // The tables come from one arena (a table that grows leaves its old block
+    // there): thousands of small blocks, each freed on its own, made releasing
+    // a large instrument's analysis walk memory long out of the caches.
+    std::pmr::monotonic_buffer_resource m_tableArena;
     struct UniqueTable {
-        std::vector<int> ids;
+        std::pmr::vector<int> ids;
         std::size_t used = 0;
     };
     std::vector<UniqueTable> m_unique;
