@@ -75,7 +75,7 @@ void RoutingAnalyzer::run() {
     m_loose.assign(n, Mdd::False);
     m_looseReached.assign(n, Mdd::False);
     m_filter.assign(n, Mdd::True);
-    m_ruleSets.clear();
+    m_ruleFired.clear();
     m_firstRule.assign(n + 1, 0);
     m_feasible = Digraph();
     m_structural = Digraph();
@@ -99,13 +99,12 @@ void RoutingAnalyzer::run() {
         if (passed != Mdd::False)
             m_feasible.addEdge(i + 1);
         int rest = shown, looseRest = looseShown;
-        m_firstRule[i] = int(m_ruleSets.size());
+        m_firstRule[i] = int(m_ruleFired.size());
         noteFilterReads(i, module);
         const QList<CompiledRouting::CompiledRule>& rules = m_routing.item(i).rules;
         for (int k = 0; k < rules.size(); ++k) {
             const CompiledRouting::CompiledRule& rule = rules[k];
             RuleSets sets;
-            sets.usable = rule.usable;
             if (rule.usable) {
                 const int c =
                     rule.condition ? m_algebra.conditionAt(*rule.condition, i + 1) : Mdd::True;
@@ -125,7 +124,7 @@ void RoutingAnalyzer::run() {
                     loosePending[t] = mdd.orOp(loosePending[t], looseFired);
                 }
             }
-            m_ruleSets.push_back(sets);
+            m_ruleFired.push_back(sets.fired);
         }
         pending[i + 1] = mdd.orOp(pending[i + 1], rest);
         loosePending[i + 1] = mdd.orOp(loosePending[i + 1], looseRest);
@@ -136,7 +135,7 @@ void RoutingAnalyzer::run() {
     noteModuleReads(module);
     m_feasible.closeVertex(); // END
     m_structural.closeVertex();
-    m_firstRule[n] = int(m_ruleSets.size());
+    m_firstRule[n] = int(m_ruleFired.size());
 }
 
 QList<int> RoutingAnalyzer::positionsOf(const std::vector<int>& vars) const {
@@ -359,7 +358,7 @@ void RoutingAnalyzer::addLoopFindings(Findings& out) const {
             for (; k < rules.size(); ++k)
                 if (rules[k].usable && rules[k].target <= p &&
                     std::binary_search(loop.begin(), loop.end(), rules[k].target) &&
-                    ruleSets(p, k).fired != Mdd::False)
+                    ruleFired(p, k) != Mdd::False)
                     break;
             if (k == rules.size())
                 continue;

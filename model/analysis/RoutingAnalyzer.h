@@ -43,10 +43,10 @@ public:
     const std::vector<std::vector<int>>& loops() const { return m_loops; }
 
 private:
+    // A usable rule's exact sets, while the programme is at its item.
     struct RuleSets {
-        int evaluated = Mdd::False; // exact: rule reached (earlier rules did not fire)
+        int evaluated = Mdd::False; // the rule is reached (earlier rules did not fire)
         int fired = Mdd::False;
-        bool usable = false;
     };
     // A rule that never fires or always fires where it is evaluated.
     struct RuleNote {
@@ -100,11 +100,13 @@ private:
     const CompiledRouting& m_routing;
     ConditionAlgebra m_algebra;
     std::vector<int> m_reached, m_presented, m_loose, m_looseReached, m_filter;
-    // Every item's rules' sets, item after item (one block rather than a
-    // vector per item with rules): rule k of item i is m_ruleSets[m_firstRule[i] + k].
-    std::vector<RuleSets> m_ruleSets;
+    // Where every item's rules fire (false for unusable ones), item after item
+    // (one block rather than a vector per item with rules): rule k of item i
+    // is m_ruleFired[m_firstRule[i] + k]. The loop findings ask; the rest of a
+    // rule's sets is used up by the programme.
+    std::vector<int> m_ruleFired;
     std::vector<int> m_firstRule;
-    const RuleSets& ruleSets(int item, int k) const { return m_ruleSets[m_firstRule[item] + k]; }
+    int ruleFired(int item, int k) const { return m_ruleFired[m_firstRule[item] + k]; }
     Digraph m_feasible;   // feasible edges per position (and END, the last vertex)
     Digraph m_structural; // every usable edge, feasible or not
     std::vector<std::vector<int>> m_loops;
