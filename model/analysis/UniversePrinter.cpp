@@ -72,6 +72,11 @@ QList<std::pair<int, int>> textRuns(const QList<TextUnit>& units, const CellSet&
 
 } // namespace
 
+// From the index entry, not the item: entries sit together.
+ItemType UniversePrinter::itemType(int position) const {
+    return m_algebra.routing().index().at(position).type;
+}
+
 const QString& UniversePrinter::itemName(int position) const {
     return m_algebra.routing().index().at(position).item->name;
 }
@@ -147,8 +152,7 @@ QList<UniversePrinter::Segment> UniversePrinter::segmentsOf(const DecisionVar& v
 
 std::optional<QString> UniversePrinter::valueList(const DecisionVar& var, const CellSet& cells,
                                                   bool& single) const {
-    // The type from the index entry, not the item: entries sit together.
-    const ItemType type = m_algebra.routing().index().at(var.position).type;
+    const ItemType type = itemType(var.position);
     single = false;
     if (type == ItemType::Text || type == ItemType::Date) {
         QStringList texts;
@@ -208,7 +212,7 @@ std::optional<QString> UniversePrinter::positive(const DecisionVar& var,
     bool single = false;
     if (const std::optional<QString> list = valueList(var, cells, single))
         return single ? name + u" = "_s + *list : name + u" in ("_s + *list + u')';
-    const ItemType type = m_algebra.routing().index().at(var.position).type;
+    const ItemType type = itemType(var.position);
     if (type == ItemType::Text || type == ItemType::Date) {
         const QList<TextUnit> units = textUnits(var);
         const QList<std::pair<int, int>> runs = textRuns(units, cells);
@@ -336,7 +340,7 @@ QString UniversePrinter::condition(const Sop& sop) const {
 }
 
 QStringList UniversePrinter::valueWords(const DecisionVar& var, const CellSet& cells) const {
-    const ItemType type = m_algebra.routing().index().at(var.position).type;
+    const ItemType type = itemType(var.position);
     QStringList parts;
     if (type == ItemType::Text || type == ItemType::Date) {
         const QList<TextUnit> units = textUnits(var);

@@ -28,6 +28,7 @@ private:
     // A reference: a copy touched the shared name's reference count, a write to
     // memory that on a large instrument is no longer in the caches.
     const QString& itemName(int position) const;
+    ItemType itemType(int position) const;
     QString itemLabel(int position) const;
     QString codeWords(int position, qint64 code) const;
     QList<Segment> segmentsOf(const DecisionVar& var, const CellSet& cells, bool integer,
