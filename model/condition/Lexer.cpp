@@ -29,13 +29,13 @@ QString smallIntegerSpelling(QStringView s) {
         u"31323334353637383940414243444546474849505152535455565758596061"
         u"626364656667686970717273747576777879808182838485868788899091"
         u"9293949596979899";
-    const auto digit = [](QChar c) { return c >= u'0' && c <= u'9' ? c.unicode() - u'0' : -1; };
-    if (s.size() == 1 && digit(s[0]) >= 0)
-        return QString::fromRawData(reinterpret_cast<const QChar*>(digits + 2 * digit(s[0]) + 1),
+    const auto value = [](QChar c) { return int(c.unicode() - u'0'); };
+    if (s.size() == 1 && isAsciiDigit(s[0]))
+        return QString::fromRawData(reinterpret_cast<const QChar*>(digits + 2 * value(s[0]) + 1),
                                     1);
-    if (s.size() == 2 && digit(s[0]) > 0 && digit(s[1]) >= 0)
+    if (s.size() == 2 && isAsciiDigit(s[0]) && s[0] != u'0' && isAsciiDigit(s[1]))
         return QString::fromRawData(
-            reinterpret_cast<const QChar*>(digits + 2 * (digit(s[0]) * 10 + digit(s[1]))), 2);
+            reinterpret_cast<const QChar*>(digits + 2 * (value(s[0]) * 10 + value(s[1]))), 2);
     return s.toString();
 }
 
