@@ -4,7 +4,6 @@
 #include "condition/Evaluator.h"
 #include "routing/CompiledRouting.h"
 
-#include <QHash>
 #include <QList>
 
 #include <cstdint>

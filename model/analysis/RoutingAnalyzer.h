@@ -6,6 +6,7 @@
 #include "Scc.h"
 #include "UniversePrinter.h"
 
+#include <QHash>
 #include <QVarLengthArray>
 
 #include <optional>
