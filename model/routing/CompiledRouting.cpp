@@ -46,7 +46,7 @@ CompiledRouting::CompiledRouting(const Instrument& instrument)
             compiled.rules.append(c);
         }
         m_items.append(compiled);
-        m_codes.append(instrument.codesOf(*entry.item));
+        m_codes.push_back(codesOf(*entry.item));
     }
 }
 
@@ -69,6 +69,23 @@ void CompiledRouting::prefetchConditions(const Item& item) {
     }
 }
 
+const QList<Code> CompiledRouting::s_noCodes;
+
+// The same codes as Instrument::codesOf, without a copy where one list holds them.
+const QList<Code>* CompiledRouting::codesOf(const Item& item) {
+    const QList<Code>* listed = &s_noCodes;
+    if (item.hasInlineCodes)
+        listed = &item.inlineCodes;
+    else if (!item.codeListName.isEmpty())
+        if (const CodeList* list = m_instrument->findCodeList(item.codeListName))
+            listed = &list->codes;
+    if (item.missing.isEmpty())
+        return listed;
+    if (listed->isEmpty())
+        return &item.missing;
+    return &m_joinedCodes.emplace_back(*listed + item.missing);
+}
+
 cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {
     // Atoms come out resolved to positions: the analysis, the checks and the
     // data check read them per use instead of looking the name up each time.
@@ -84,7 +101,7 @@ int CompiledRouting::positionOf(const QString& name) const {
 }
 
 bool CompiledRouting::isMissingCode(int position, qint64 code) const {
-    for (const Code& c : m_codes.at(position))
+    for (const Code& c : codes(position))
         if (c.code == code)
             return c.isMissing();
     return false;

@@ -5,6 +5,9 @@
 
 #include <QList>
 
+#include <deque>
+#include <vector>
+
 namespace rb {
 
 // The routing of an instrument with every condition parsed and every target
@@ -29,6 +32,11 @@ public:
     };
 
     explicit CompiledRouting(const Instrument& instrument);
+    // Not copyable: codes() points into m_joinedCodes (moves keep a deque's addresses).
+    CompiledRouting(const CompiledRouting&) = delete;
+    CompiledRouting& operator=(const CompiledRouting&) = delete;
+    CompiledRouting(CompiledRouting&&) = default;
+    CompiledRouting& operator=(CompiledRouting&&) = default;
 
     const Instrument& instrument() const { return *m_instrument; }
     const ItemIndex& index() const { return m_index; }
@@ -45,7 +53,7 @@ public:
     // True when a code is a missing code of the item at this position.
     bool isMissingCode(int position, qint64 code) const;
     // Codes (with missing codes) of the item at this position.
-    const QList<Code>& codes(int position) const { return m_codes.at(position); }
+    const QList<Code>& codes(int position) const { return *m_codes[std::size_t(position)]; }
 
     // Parses a condition and reports whether it is usable (no syntax error,
     // no unknown name, no type mismatch).
@@ -53,12 +61,19 @@ public:
 
 private:
     static void prefetchRules(const Item& item);
+    const QList<Code>* codesOf(const Item& item);
     static void prefetchConditions(const Item& item);
 
     const Instrument* m_instrument;
     ItemIndex m_index;
     QList<CompiledItem> m_items;
-    QList<QList<Code>> m_codes;
+    // Each item's codes by address: in the instrument where one list holds
+    // them all (a shared list, the item's own, or its missing codes alone),
+    // else in m_joinedCodes. A list per item cost an allocation per item
+    // with missing codes, and touched every item's list again when freed.
+    std::vector<const QList<Code>*> m_codes;
+    std::deque<QList<Code>> m_joinedCodes; // deque: the addresses stay put
+    static const QList<Code> s_noCodes;
 };
 
 } // namespace rb
