@@ -61,15 +61,18 @@ const CodeList* Instrument::findCodeList(const QString& name) const {
     return nullptr;
 }
 
-QList<Code> Instrument::codesOf(const Item& item) const {
-    QList<Code> codes;
+const QList<Code>& Instrument::listedCodes(const Item& item) const {
+    static const QList<Code> none;
     if (item.hasInlineCodes)
-        codes = item.inlineCodes;
-    else if (!item.codeListName.isEmpty())
+        return item.inlineCodes;
+    if (!item.codeListName.isEmpty())
         if (const CodeList* list = findCodeList(item.codeListName))
-            codes = list->codes;
-    codes += item.missing;
-    return codes;
+            return list->codes;
+    return none;
+}
+
+QList<Code> Instrument::codesOf(const Item& item) const {
+    return listedCodes(item) + item.missing;
 }
 
 ItemIndex::ItemIndex(const Instrument& instrument) {

@@ -128,6 +128,8 @@ struct Instrument {
     const CodeList* findCodeList(const QString& name) const;
     // The codes an item may hold: its list (shared or inline) then its extra missing codes.
     QList<Code> codesOf(const Item& item) const;
+    // Its list alone (shared or inline; empty when it has none), by reference.
+    const QList<Code>& listedCodes(const Item& item) const;
 };
 
 // A flat, position-ordered view of the items (the routing order) with their

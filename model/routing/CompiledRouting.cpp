@@ -69,21 +69,14 @@ void CompiledRouting::prefetchConditions(const Item& item) {
     }
 }
 
-const QList<Code> CompiledRouting::s_noCodes;
-
 // The same codes as Instrument::codesOf, without a copy where one list holds them.
 const QList<Code>* CompiledRouting::codesOf(const Item& item) {
-    const QList<Code>* listed = &s_noCodes;
-    if (item.hasInlineCodes)
-        listed = &item.inlineCodes;
-    else if (!item.codeListName.isEmpty())
-        if (const CodeList* list = m_instrument->findCodeList(item.codeListName))
-            listed = &list->codes;
+    const QList<Code>& listed = m_instrument->listedCodes(item);
     if (item.missing.isEmpty())
-        return listed;
-    if (listed->isEmpty())
+        return &listed;
+    if (listed.isEmpty())
         return &item.missing;
-    return &m_joinedCodes.emplace_back(*listed + item.missing);
+    return &m_joinedCodes.emplace_back(listed + item.missing);
 }
 
 cond::ExprPtr CompiledRouting::compileCondition(const QString& text) const {

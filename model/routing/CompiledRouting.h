@@ -73,7 +73,6 @@ private:
     // with missing codes, and touched every item's list again when freed.
     std::vector<const QList<Code>*> m_codes;
     std::deque<QList<Code>> m_joinedCodes; // deque: the addresses stay put
-    static const QList<Code> s_noCodes;
 };
 
 } // namespace rb
